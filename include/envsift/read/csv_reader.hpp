@@ -1,0 +1,34 @@
+// A streaming reader for delimited text (RFC 4180 quoting): quoted fields may hold the delimiter,
+// doubled quotes and line breaks; CRLF and LF both end a record; a UTF-8 byte-order mark is skipped.
+#pragma once
+#include <cstddef>
+#include <istream>
+#include <string>
+#include <vector>
+
+namespace envsift {
+
+class CsvReader {
+ public:
+  CsvReader(std::istream& in, char delimiter, std::string source_name);
+
+  // Reads the next record into `fields`. Returns false at end of input. `line` is set to the
+  // 1-based line number where the record starts. Throws InputError on an unterminated quote.
+  bool next(std::vector<std::string>& fields, std::size_t& line);
+
+ private:
+  int get();
+  int peek();
+
+  std::istream& in_;
+  char delimiter_;
+  std::string source_;
+  std::size_t line_ = 1;
+  bool at_start_ = true;
+};
+
+// Picks the delimiter of a header line: the most frequent of tab, comma and semicolon outside
+// quotes (comma when none occurs).
+char sniff_delimiter(const std::string& header_line);
+
+}  // namespace envsift

@@ -1,0 +1,38 @@
+// Step 1 of the pipeline: read occurrence records from delimited text (CSV/TSV) or from any
+// vector source GDAL/OGR can open (GeoPackage, GeoJSON, Shapefile, ...).
+#pragma once
+#include <string>
+
+#include "envsift/occurrence.hpp"
+
+namespace envsift {
+
+// Which input columns hold what. Defaults are Darwin Core terms (TDWG standard).
+struct ColumnNames {
+  std::string id = "occurrenceID";
+  std::string taxon = "scientificName";
+  std::string longitude = "decimalLongitude";
+  std::string latitude = "decimalLatitude";
+  std::string uncertainty = "coordinateUncertaintyInMeters";
+  std::string min_elevation = "minimumElevationInMeters";
+  std::string max_elevation = "maximumElevationInMeters";
+};
+
+struct ReaderOptions {
+  ColumnNames columns;
+  char delimiter = 0;          // 0: '\t' for .tsv/.tab, else sniffed from the header line
+  bool require_taxon = false;  // screening needs a taxon column; sampling does not
+  std::string vector_layer;    // layer of a multi-layer vector source; empty = the first
+};
+
+// Reads every record; none is dropped. Records with unusable coordinates carry reason codes in
+// `problems`. Throws InputError when the file cannot be read or a required column is missing.
+// For vector sources with point geometry, coordinates come from the geometry (reprojected to
+// WGS 84 longitude/latitude) and two columns decimalLongitude/decimalLatitude are appended to
+// `columns` when the source has no such fields.
+PointTable read_points(const std::string& path, const ReaderOptions& options);
+
+// True when the path is read as delimited text rather than through OGR.
+bool is_delimited_text(const std::string& path);
+
+}  // namespace envsift

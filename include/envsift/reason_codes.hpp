@@ -1,0 +1,27 @@
+// Reason codes: short, stable words written to the `status` column when a record (or one of its
+// layer values) could not be used. Several codes are joined with ';'. Layer codes carry the layer
+// name after a colon, e.g. `nodata:precip`. The README lists them all.
+#pragma once
+#include <string>
+
+namespace envsift::reason {
+
+inline const std::string ok = "ok";
+// Reading
+inline const std::string coord_missing = "coord_missing";            // longitude or latitude empty
+inline const std::string coord_not_numeric = "coord_not_numeric";    // text that is not a number
+inline const std::string coord_not_finite = "coord_not_finite";      // NaN, inf, or overflows a double
+inline const std::string coord_out_of_range = "coord_out_of_range";  // |lat| > 90 or |lon| > 180
+inline const std::string ragged_row = "ragged_row";                  // field count differs from header
+inline const std::string uncertainty_not_numeric = "uncertainty_not_numeric";
+inline const std::string taxon_missing = "taxon_missing";            // empty taxon name (screen only)
+// Sampling (suffix ":<layer>")
+inline const std::string outside_layer = "outside_layer";  // point falls outside the raster's extent
+inline const std::string nodata = "nodata";                // the cell holds the layer's nodata value
+// Screening
+inline const std::string no_values = "no_values";          // no layer value at all to test
+inline const std::string too_few_records = "too_few_records";  // taxon too small for every test
+
+inline std::string on_layer(const std::string& code, const std::string& layer) { return code + ":" + layer; }
+
+}  // namespace envsift::reason

@@ -1,0 +1,83 @@
+// Step 2 of the pipeline: sample a stack of rasters at every point. Each layer is handled on its
+// own terms (CRS, resolution, extent, data type, nodata, scale/offset): points are transformed
+// into the layer's CRS, cells are found by inverting the geotransform (pixel-is-area), whole
+// blocks are read through a shared block cache, and points are visited in block order.
+#pragma once
+#include <array>
+#include <cstdint>
+#include <memory>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include <Eigen/Core>
+
+#include "envsift/sample/block_cache.hpp"
+
+namespace envsift {
+
+enum class Interpolation { nearest, bilinear };
+
+// One layer = one band of one raster file.
+struct LayerSpec {
+  std::string name;
+  std::string path;
+  int band = 1;
+};
+
+// Turns command-line layer arguments into layer specs. An argument is a path, or NAME=PATH to
+// choose the column name. A layer is named after its file without the extension; every band of a
+// multi-band file becomes a layer NAME_b1, NAME_b2, ... Throws on duplicate names.
+std::vector<LayerSpec> expand_layer_arguments(const std::vector<std::string>& arguments);
+
+struct LayerInfo {
+  LayerSpec spec;
+  int width = 0, height = 0;
+  std::array<double, 6> geotransform{};
+  std::string crs_wkt;
+  bool geographic = false;
+  std::optional<double> nodata;
+  double scale = 1, offset = 0;
+  std::string data_type;      // GDAL's name, e.g. "Float32"
+  int block_width = 0, block_height = 0;
+  bool float32_values = false;  // unscaled Float32: values are printed as 32-bit floats
+};
+
+enum class CellStatus : std::uint8_t { ok, no_point, outside, nodata };
+
+struct Samples {
+  Eigen::MatrixXd values;           // records × layers, NaN where missing
+  std::vector<CellStatus> status;   // records × layers, row-major
+  std::vector<std::uint64_t> cell;  // per record: identifies the set of cells it fell in, across layers
+  std::size_t layer_count = 0;
+  CellStatus status_at(std::size_t record, std::size_t layer) const { return status[record * layer_count + layer]; }
+};
+
+class RasterStack {
+ public:
+  // Opens and checks every layer. Throws InputError for a file that is not a readable raster,
+  // has no georeferencing or CRS, or has a rotated geotransform.
+  explicit RasterStack(std::vector<LayerSpec> specs, std::size_t cache_bytes = std::size_t(256) << 20);
+  ~RasterStack();
+  RasterStack(const RasterStack&) = delete;
+  RasterStack& operator=(const RasterStack&) = delete;
+
+  const std::vector<LayerInfo>& layers() const { return layers_; }
+
+  // Samples every layer at WGS 84 longitude/latitude points (NaN = no point). Parallel with
+  // OpenMP; the result does not depend on the thread count.
+  // Bilinear uses the four cell centres around the point; where one of them is outside the
+  // raster or nodata, the value falls back to the containing cell (nearest).
+  Samples sample(const std::vector<double>& longitude, const std::vector<double>& latitude,
+                 Interpolation method);
+
+  const BlockCache& cache() const { return cache_; }
+
+ private:
+  struct Impl;
+  std::vector<LayerInfo> layers_;
+  BlockCache cache_;
+  std::unique_ptr<Impl> impl_;
+};
+
+}  // namespace envsift

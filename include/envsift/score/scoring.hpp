@@ -1,0 +1,31 @@
+// Step 5 of the pipeline: combine what the tests found into one score per record and rank.
+//
+//   score = max over tests t that judged the record of  statistic_t / threshold_t
+//
+// so score > 1 exactly when some test flagged the record, and scores are comparable across taxa
+// and tests (each is "how many times its own cutoff"). Records are ranked by score, highest
+// first; ties keep input order.
+#pragma once
+#include <cstddef>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "envsift/detect/detector.hpp"
+
+namespace envsift {
+
+struct Verdict {
+  std::optional<double> score;      // empty: no test could judge the record
+  std::vector<std::string> flags;   // names of the tests that flagged it
+  std::vector<std::string> reasons; // plain words, most severe test first
+  std::vector<std::string> untested;  // reason codes of tests that could not judge it
+};
+
+// `findings[t]` is test t's finding for this record; `names[t]` its name.
+Verdict combine(const std::vector<const Finding*>& findings, const std::vector<std::string>& names);
+
+// Rank 1 = highest score. Records without a score get rank 0 (written as empty).
+std::vector<std::size_t> rank_by_score(const std::vector<std::optional<double>>& scores);
+
+}  // namespace envsift

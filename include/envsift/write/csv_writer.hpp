@@ -1,0 +1,30 @@
+// Step 6 of the pipeline: write results. Output is written to a temporary file beside the target
+// and renamed over it only by commit(), so a failed or interrupted run never leaves a file that
+// looks complete.
+#pragma once
+#include <cstdio>
+#include <string>
+#include <vector>
+
+namespace envsift {
+
+class CsvWriter {
+ public:
+  explicit CsvWriter(std::string path);
+  ~CsvWriter();  // removes the temporary file unless committed
+  CsvWriter(const CsvWriter&) = delete;
+  CsvWriter& operator=(const CsvWriter&) = delete;
+
+  void row(const std::vector<std::string>& fields);
+  void commit();
+
+ private:
+  std::string path_, temp_path_;
+  std::FILE* file_ = nullptr;
+  std::string buffer_;
+};
+
+// RFC 4180: a field is quoted when it holds a comma, quote, CR or LF, or starts/ends with a space.
+void append_csv_field(std::string& out, const std::string& field);
+
+}  // namespace envsift

@@ -1,0 +1,15 @@
+// Number formatting for outputs: the shortest text that reads back to the same number, so
+// outputs are exact, compact and identical on every run.
+#pragma once
+#include <string>
+
+namespace envsift {
+
+// NaN → empty. `as_float32`: the value came from a Float32 cell; print the shortest text that
+// reads back to that 32-bit float (what GDAL's tools show), not its 17-digit double expansion.
+std::string format_value(double value, bool as_float32 = false);
+
+// Scores with three decimals.
+std::string format_score(double score);
+
+}  // namespace envsift

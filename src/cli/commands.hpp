@@ -1,0 +1,7 @@
+// Subcommands of the envsift program. Each parses its options and calls the library.
+#pragma once
+
+namespace envsift::cli {
+int sample_command(int argc, char** argv);
+int screen_command(int argc, char** argv);
+}  // namespace envsift::cli

@@ -1,0 +1,52 @@
+// envsift: screen species occurrence records against environmental rasters.
+#include <cpl_error.h>
+#include <cstring>
+#include <iostream>
+#include <string>
+
+#include "commands.hpp"
+#include "envsift/errors.hpp"
+
+namespace {
+
+const char* kUsage =
+    "envsift " ENVSIFT_VERSION " - find occurrence records whose environment is implausible for their taxon\n"
+    "\n"
+    "usage: envsift COMMAND [options]     (envsift COMMAND --help for details)\n"
+    "\n"
+    "commands:\n"
+    "  sample   sample raster layers at every record\n"
+    "  screen   sample, test each record against its taxon, and rank suspects for review\n"
+    "\n"
+    "Flags are reasons to look, not proof of error: review flagged records before removing any.\n"
+    "exit codes: 0 ok, 2 bad command line, 3 bad input, 4 output not written, 5 internal error\n";
+
+void quiet_gdal_handler(CPLErr, CPLErrorNum, const char*) {}  // envsift reports errors itself
+
+}  // namespace
+
+int main(int argc, char** argv) {
+  using envsift::ExitCode;
+  CPLSetErrorHandler(quiet_gdal_handler);
+  if (argc < 2 || !std::strcmp(argv[1], "--help") || !std::strcmp(argv[1], "-h") || !std::strcmp(argv[1], "help")) {
+    std::cout << kUsage;
+    return argc < 2 ? static_cast<int>(ExitCode::usage) : 0;
+  }
+  if (!std::strcmp(argv[1], "--version")) {
+    std::cout << "envsift " ENVSIFT_VERSION "\n";
+    return 0;
+  }
+  const std::string command = argv[1];
+  try {
+    if (command == "sample") return envsift::cli::sample_command(argc - 1, argv + 1);
+    if (command == "screen") return envsift::cli::screen_command(argc - 1, argv + 1);
+    std::cerr << "envsift: error: unknown command '" << command << "'; use sample or screen (envsift --help)\n";
+    return static_cast<int>(ExitCode::usage);
+  } catch (const envsift::Error& e) {
+    std::cerr << "envsift: error: " << e.what() << "\n";
+    return static_cast<int>(e.code());
+  } catch (const std::exception& e) {
+    std::cerr << "envsift: internal error: " << e.what() << "; please report it with the command line used\n";
+    return static_cast<int>(ExitCode::internal);
+  }
+}

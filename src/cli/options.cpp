@@ -1,0 +1,76 @@
+#include "options.hpp"
+
+#include <iostream>
+#include <omp.h>
+
+#include "envsift/errors.hpp"
+
+namespace envsift::cli {
+
+void add_sampling_options(po::options_description& d, SampleOptions& o) {
+  ColumnNames& c = o.reader.columns;
+  d.add_options()
+    ("points", po::value(&o.points)->required()->value_name("FILE"),
+     "occurrence records: CSV or TSV with a header line, or a GeoPackage, GeoJSON or Shapefile of points")
+    ("layers", po::value(&o.layers)->required()->multitoken()->value_name("RASTER..."),
+     "raster layers to sample (GeoTIFF or any GDAL raster). Each becomes a column named after its file; "
+     "write NAME=PATH to choose the name. Layers may differ in CRS, resolution and extent.")
+    ("out", po::value(&o.out)->required()->value_name("FILE.csv"), "where to write the result (CSV)")
+    ("method", po::value<std::string>()->default_value("nearest")->value_name("nearest|bilinear"),
+     "nearest: the value of the cell the point falls in (what gdallocationinfo reports); bilinear: "
+     "weighted from the four nearest cell centres, falling back to nearest at edges and beside nodata")
+    ("id-column", po::value(&c.id)->default_value(c.id)->value_name("NAME"), "record identifier column")
+    ("taxon-column", po::value(&c.taxon)->default_value(c.taxon)->value_name("NAME"), "taxon name column")
+    ("longitude-column", po::value(&c.longitude)->default_value(c.longitude)->value_name("NAME"),
+     "longitude column, decimal degrees WGS 84")
+    ("latitude-column", po::value(&c.latitude)->default_value(c.latitude)->value_name("NAME"),
+     "latitude column, decimal degrees WGS 84")
+    ("uncertainty-column", po::value(&c.uncertainty)->default_value(c.uncertainty)->value_name("NAME"),
+     "coordinate uncertainty column, metres")
+    ("delimiter", po::value<std::string>()->value_name("CHAR"),
+     "field delimiter of a text points file: ',' ';' 'tab' (default: tab for .tsv, else guessed from the header)")
+    ("points-layer", po::value(&o.reader.vector_layer)->value_name("NAME"),
+     "layer of a multi-layer GeoPackage (default: the first)")
+    ("threads", po::value<int>()->value_name("N"), "threads to use (default: all cores); results do not depend on it")
+    ("block-cache-mb", po::value(&o.cache_megabytes)->default_value(o.cache_megabytes)->value_name("MB"),
+     "memory for decoded raster blocks")
+    ("help,h", "show this help");
+}
+
+bool parse(int argc, char** argv, const std::string& command, const std::string& synopsis,
+           const po::options_description& options, po::variables_map& vm) {
+  for (int i = 0; i < argc; ++i) {
+    const std::string a = argv[i];
+    if (a == "--help" || a == "-h") {
+      std::cout << "usage: envsift " << command << " " << synopsis << "\n\n" << options << "\n";
+      return false;
+    }
+  }
+  try {
+    po::store(po::command_line_parser(argc, argv).options(options).run(), vm);
+    po::notify(vm);
+  } catch (const po::error& e) {
+    throw UsageError(std::string(e.what()) + "; see 'envsift " + command + " --help'");
+  }
+  return true;
+}
+
+void finish_sampling_options(const po::variables_map& vm, SampleOptions& o) {
+  const std::string method = vm["method"].as<std::string>();
+  if (method == "nearest") o.method = Interpolation::nearest;
+  else if (method == "bilinear") o.method = Interpolation::bilinear;
+  else throw UsageError("--method must be nearest or bilinear, not '" + method + "'");
+  if (vm.count("delimiter")) {
+    const std::string d = vm["delimiter"].as<std::string>();
+    if (d == "tab" || d == "\\t" || d == "\t") o.reader.delimiter = '\t';
+    else if (d.size() == 1 && d != "\"" && d != "\n") o.reader.delimiter = d[0];
+    else throw UsageError("--delimiter must be one character or 'tab', not '" + d + "'");
+  }
+  if (vm.count("threads")) {
+    const int t = vm["threads"].as<int>();
+    if (t < 1) throw UsageError("--threads must be at least 1");
+    omp_set_num_threads(t);
+  }
+}
+
+}  // namespace envsift::cli

@@ -1,0 +1,23 @@
+// Command-line options shared by the subcommands.
+#pragma once
+#include <boost/program_options.hpp>
+#include <string>
+#include <vector>
+
+#include "envsift/pipeline.hpp"
+
+namespace envsift::cli {
+
+namespace po = boost::program_options;
+
+// Adds --points, --layers, --method, --out, column names, --threads and --block-cache-mb.
+void add_sampling_options(po::options_description& d, SampleOptions& o);
+
+// Parses argv; returns false after printing help. Throws UsageError on bad options.
+bool parse(int argc, char** argv, const std::string& command, const std::string& synopsis,
+           const po::options_description& options, po::variables_map& vm);
+
+// Applies the parsed values that need checking or conversion (method, delimiter, threads).
+void finish_sampling_options(const po::variables_map& vm, SampleOptions& o);
+
+}  // namespace envsift::cli

@@ -1,0 +1,23 @@
+#include <iostream>
+
+#include "commands.hpp"
+#include "options.hpp"
+
+namespace envsift::cli {
+
+int sample_command(int argc, char** argv) {
+  SampleOptions o;
+  po::options_description d(
+      "Sample every raster layer at every record's coordinates. Output: every input record once, in input\n"
+      "order, with its original columns, one column per layer and a `status` column (`ok` or reason codes\n"
+      "such as outside_layer:NAME, nodata:NAME, coord_missing).\n\nOptions");
+  add_sampling_options(d, o);
+  po::variables_map vm;
+  if (!parse(argc, argv, "sample", "--points FILE --layers RASTER... --out FILE.csv [options]", d, vm)) return 0;
+  finish_sampling_options(vm, o);
+  const RunSummary summary = run_sample(o);
+  std::cerr << summary.line() << "\nenvsift: wrote " << o.out << "\n";
+  return 0;
+}
+
+}  // namespace envsift::cli

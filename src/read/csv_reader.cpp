@@ -1,0 +1,93 @@
+#include "envsift/read/csv_reader.hpp"
+
+#include "envsift/errors.hpp"
+
+namespace envsift {
+
+CsvReader::CsvReader(std::istream& in, char delimiter, std::string source_name)
+    : in_(in), delimiter_(delimiter), source_(std::move(source_name)) {}
+
+int CsvReader::get() { return in_.get(); }
+int CsvReader::peek() { return in_.peek(); }
+
+bool CsvReader::next(std::vector<std::string>& fields, std::size_t& line) {
+  fields.clear();
+  if (at_start_) {
+    at_start_ = false;
+    static const unsigned char bom[3] = {0xEF, 0xBB, 0xBF};
+    if (peek() == bom[0]) {
+      in_.get();
+      if (peek() == bom[1]) {
+        in_.get();
+        if (peek() == bom[2]) in_.get();
+        else in_.unget(), in_.unget();
+      } else {
+        in_.unget();
+      }
+    }
+  }
+  if (peek() == std::char_traits<char>::eof()) return false;
+
+  line = line_;
+  std::string field;
+  bool quoted = false;      // inside a quoted section
+  bool was_quoted = false;  // field began with a quote
+  std::size_t quote_line = 0;
+  for (;;) {
+    int c = get();
+    if (c == std::char_traits<char>::eof()) {
+      if (quoted)
+        throw InputError(source_, quote_line, "quote opened here is never closed",
+                         "close the quote or remove it; a quote inside a field must be doubled (\"\")");
+      fields.push_back(std::move(field));
+      return true;
+    }
+    if (quoted) {
+      if (c == '"') {
+        if (peek() == '"') {
+          get();
+          field.push_back('"');
+        } else {
+          quoted = false;
+        }
+      } else {
+        if (c == '\n') ++line_;
+        field.push_back(static_cast<char>(c));
+      }
+      continue;
+    }
+    if (c == '"' && field.empty() && !was_quoted) {
+      quoted = was_quoted = true;
+      quote_line = line_;
+    } else if (c == delimiter_) {
+      fields.push_back(std::move(field));
+      field.clear();
+      was_quoted = false;
+    } else if (c == '\r' && peek() == '\n') {
+      // CRLF: the '\n' ends the record on the next iteration
+    } else if (c == '\n') {
+      ++line_;
+      fields.push_back(std::move(field));
+      return true;
+    } else {
+      field.push_back(static_cast<char>(c));
+    }
+  }
+}
+
+char sniff_delimiter(const std::string& header_line) {
+  std::size_t tabs = 0, commas = 0, semicolons = 0;
+  bool quoted = false;
+  for (char c : header_line) {
+    if (c == '"') quoted = !quoted;
+    if (quoted) continue;
+    tabs += c == '\t';
+    commas += c == ',';
+    semicolons += c == ';';
+  }
+  if (tabs >= commas && tabs >= semicolons && tabs > 0) return '\t';
+  if (semicolons > commas) return ';';
+  return ',';
+}
+
+}  // namespace envsift

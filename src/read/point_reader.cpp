@@ -1,0 +1,219 @@
+#include "envsift/read/point_reader.hpp"
+
+#include <algorithm>
+#include <cctype>
+#include <charconv>
+#include <fstream>
+#include <memory>
+#include <optional>
+
+#include <gdal_priv.h>
+#include <ogrsf_frmts.h>
+
+#include "envsift/errors.hpp"
+#include "gdal_init.hpp"
+#include "envsift/read/coordinates.hpp"
+#include "envsift/read/csv_reader.hpp"
+#include "envsift/reason_codes.hpp"
+
+namespace envsift {
+namespace {
+
+std::string lower(std::string s) {
+  std::transform(s.begin(), s.end(), s.begin(), [](unsigned char c) { return std::tolower(c); });
+  return s;
+}
+
+std::string extension(const std::string& path) {
+  auto dot = path.find_last_of('.');
+  auto slash = path.find_last_of("/\\");
+  if (dot == std::string::npos || (slash != std::string::npos && dot < slash)) return "";
+  return lower(path.substr(dot + 1));
+}
+
+// Column index by exact name, else by a unique case-insensitive match.
+std::optional<std::size_t> find_column(const std::vector<std::string>& columns, const std::string& name) {
+  if (name.empty()) return std::nullopt;
+  for (std::size_t i = 0; i < columns.size(); ++i)
+    if (columns[i] == name) return i;
+  std::optional<std::size_t> found;
+  for (std::size_t i = 0; i < columns.size(); ++i) {
+    if (lower(columns[i]) == lower(name)) {
+      if (found) return std::nullopt;
+      found = i;
+    }
+  }
+  return found;
+}
+
+std::string list_columns(const std::vector<std::string>& columns) {
+  std::string s;
+  for (const auto& c : columns) s += (s.empty() ? "" : ", ") + ("'" + c + "'");
+  return s.empty() ? "none" : s;
+}
+
+struct ColumnIndex {
+  std::size_t longitude, latitude;
+  std::optional<std::size_t> id, taxon, uncertainty;
+};
+
+ColumnIndex locate_columns(const PointTable& table, const ReaderOptions& o) {
+  auto required = [&](const std::string& name, const std::string& role, const std::string& option) {
+    auto i = find_column(table.columns, name);
+    if (!i)
+      throw InputError(table.source, 1,
+                       "no " + role + " column '" + name + "' (columns found: " + list_columns(table.columns) + ")",
+                       "name the column holding the " + role + " with " + option);
+    return *i;
+  };
+  ColumnIndex ix{required(o.columns.longitude, "longitude", "--longitude-column"),
+                 required(o.columns.latitude, "latitude", "--latitude-column"),
+                 find_column(table.columns, o.columns.id), std::nullopt,
+                 find_column(table.columns, o.columns.uncertainty)};
+  if (o.require_taxon) ix.taxon = required(o.columns.taxon, "taxon", "--taxon-column");
+  else ix.taxon = find_column(table.columns, o.columns.taxon);
+  return ix;
+}
+
+// Fills the parsed members of a record from its original fields.
+void parse_record(Occurrence& r, const ColumnIndex& ix, std::size_t column_count) {
+  if (r.fields.size() != column_count) {
+    r.problems.push_back(reason::ragged_row);
+    r.fields.resize(column_count);  // keeps columns aligned in every output
+  }
+  auto lon = parse_coordinate(r.fields[ix.longitude], Axis::longitude);
+  auto lat = parse_coordinate(r.fields[ix.latitude], Axis::latitude);
+  for (const auto* p : {&lon, &lat})
+    if (!p->problem.empty() &&
+        std::find(r.problems.begin(), r.problems.end(), p->problem) == r.problems.end())
+      r.problems.push_back(p->problem);
+  if (lon.problem.empty() && lat.problem.empty()) {
+    r.longitude = lon.value;
+    r.latitude = lat.value;
+  }
+  if (ix.id) r.id = r.fields[*ix.id];
+  if (ix.taxon) r.taxon = std::string(trim(r.fields[*ix.taxon]));
+  if (ix.uncertainty) {
+    auto u = parse_number(r.fields[*ix.uncertainty]);
+    if (u.problem.empty() && u.value >= 0) r.uncertainty_m = u.value;
+    else if (u.problem != "empty") r.problems.push_back(reason::uncertainty_not_numeric);
+  }
+}
+
+PointTable read_delimited(const std::string& path, const ReaderOptions& o) {
+  std::ifstream in(path, std::ios::binary);
+  if (!in) throw InputError(path, "cannot open the points file", "check the path and its read permission");
+  char delimiter = o.delimiter;
+  if (!delimiter) {
+    auto ext = extension(path);
+    if (ext == "tsv" || ext == "tab") {
+      delimiter = '\t';
+    } else {
+      std::string first;
+      std::getline(in, first);
+      delimiter = sniff_delimiter(first);
+      in.clear();
+      in.seekg(0);
+    }
+  }
+  PointTable table;
+  table.source = path;
+  CsvReader reader(in, delimiter, path);
+  std::size_t line = 0;
+  if (!reader.next(table.columns, line))
+    throw InputError(path, 1, "the file is empty", "give a file with a header line and one record per line");
+  if (!table.columns.empty() && !table.columns.back().empty() && table.columns.back().back() == '\r')
+    table.columns.back().pop_back();
+  const ColumnIndex ix = locate_columns(table, o);
+  Occurrence r;
+  while (reader.next(r.fields, line)) {
+    if (r.fields.size() == 1 && r.fields[0].empty()) continue;  // blank line: not a record
+    r.line = line;
+    parse_record(r, ix, table.columns.size());
+    table.records.push_back(std::move(r));
+    r = Occurrence{};
+  }
+  return table;
+}
+
+std::string shortest(double v) {
+  char buf[32];
+  auto res = std::to_chars(buf, buf + sizeof buf, v);
+  return std::string(buf, res.ptr);
+}
+
+PointTable read_vector(const std::string& path, const ReaderOptions& o) {
+  ensure_gdal_registered();
+  std::unique_ptr<GDALDataset> ds(
+      GDALDataset::Open(path.c_str(), GDAL_OF_VECTOR | GDAL_OF_READONLY, nullptr, nullptr, nullptr));
+  if (!ds)
+    throw InputError(path, "cannot open as a points file (not CSV/TSV and not a vector format GDAL reads)",
+                     "give a .csv/.tsv file or a GeoPackage, GeoJSON or Shapefile");
+  OGRLayer* layer = o.vector_layer.empty() ? ds->GetLayer(0) : ds->GetLayerByName(o.vector_layer.c_str());
+  if (!layer)
+    throw InputError(path, o.vector_layer.empty() ? "has no layers" : "has no layer '" + o.vector_layer + "'",
+                     "name the points layer with --points-layer");
+  PointTable table;
+  table.source = path;
+  OGRFeatureDefn* defn = layer->GetLayerDefn();
+  for (int i = 0; i < defn->GetFieldCount(); ++i) table.columns.push_back(defn->GetFieldDefn(i)->GetNameRef());
+  const std::size_t attribute_count = table.columns.size();
+
+  // Longitude/latitude attributes win when present (they are the original data); otherwise a point
+  // geometry supplies them, reprojected to WGS 84 lon/lat, in two appended columns.
+  const bool has_attributes = find_column(table.columns, o.columns.longitude) &&
+                              find_column(table.columns, o.columns.latitude);
+  const bool use_geometry = !has_attributes && wkbFlatten(layer->GetGeomType()) == wkbPoint;
+  std::unique_ptr<OGRCoordinateTransformation> to_wgs84;
+  if (use_geometry) {
+    table.columns.push_back(o.columns.longitude);
+    table.columns.push_back(o.columns.latitude);
+    const OGRSpatialReference* src = layer->GetSpatialRef();
+    if (src) {
+      OGRSpatialReference wgs84, source(*src);
+      wgs84.SetWellKnownGeogCS("WGS84");
+      wgs84.SetAxisMappingStrategy(OAMS_TRADITIONAL_GIS_ORDER);
+      source.SetAxisMappingStrategy(OAMS_TRADITIONAL_GIS_ORDER);
+      if (!source.IsSame(&wgs84)) to_wgs84.reset(OGRCreateCoordinateTransformation(&source, &wgs84));
+    }
+  }
+  const ColumnIndex ix = locate_columns(table, o);
+
+  std::size_t feature_number = 0;
+  layer->ResetReading();
+  for (auto& feature : *layer) {
+    Occurrence r;
+    r.line = ++feature_number;
+    r.fields.reserve(table.columns.size());
+    for (std::size_t i = 0; i < attribute_count; ++i)
+      r.fields.push_back(feature->IsFieldSetAndNotNull(static_cast<int>(i))
+                             ? feature->GetFieldAsString(static_cast<int>(i)) : "");
+    if (use_geometry) {
+      r.fields.resize(table.columns.size());
+      const OGRGeometry* g = feature->GetGeometryRef();
+      if (g && !g->IsEmpty()) {
+        double x = g->toPoint()->getX(), y = g->toPoint()->getY();
+        if (!to_wgs84 || to_wgs84->Transform(1, &x, &y)) {
+          r.fields[ix.longitude] = shortest(x);
+          r.fields[ix.latitude] = shortest(y);
+        }
+      }
+    }
+    parse_record(r, ix, table.columns.size());
+    table.records.push_back(std::move(r));
+  }
+  return table;
+}
+
+}  // namespace
+
+bool is_delimited_text(const std::string& path) {
+  auto ext = extension(path);
+  return ext == "csv" || ext == "tsv" || ext == "tab" || ext == "txt";
+}
+
+PointTable read_points(const std::string& path, const ReaderOptions& options) {
+  return is_delimited_text(path) ? read_delimited(path, options) : read_vector(path, options);
+}
+
+}  // namespace envsift

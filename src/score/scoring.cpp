@@ -1,0 +1,40 @@
+#include "envsift/score/scoring.hpp"
+
+#include <algorithm>
+#include <numeric>
+
+namespace envsift {
+
+Verdict combine(const std::vector<const Finding*>& findings, const std::vector<std::string>& names) {
+  Verdict v;
+  std::vector<std::size_t> order;
+  for (std::size_t t = 0; t < findings.size(); ++t) {
+    const Finding& f = *findings[t];
+    if (!f.tested) {
+      v.untested.push_back(f.untested_reason);
+      continue;
+    }
+    v.score = std::max(v.score.value_or(0.0), f.severity());
+    if (f.flagged) {
+      v.flags.push_back(names[t]);
+      order.push_back(t);
+    }
+  }
+  std::stable_sort(order.begin(), order.end(),
+                   [&](std::size_t a, std::size_t b) { return findings[a]->severity() > findings[b]->severity(); });
+  for (std::size_t t : order)
+    for (const auto& r : findings[t]->reasons) v.reasons.push_back(r);
+  return v;
+}
+
+std::vector<std::size_t> rank_by_score(const std::vector<std::optional<double>>& scores) {
+  std::vector<std::size_t> order;
+  for (std::size_t i = 0; i < scores.size(); ++i)
+    if (scores[i]) order.push_back(i);
+  std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) { return *scores[a] > *scores[b]; });
+  std::vector<std::size_t> rank(scores.size(), 0);
+  for (std::size_t k = 0; k < order.size(); ++k) rank[order[k]] = k + 1;
+  return rank;
+}
+
+}  // namespace envsift
