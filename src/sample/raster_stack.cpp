@@ -44,6 +44,17 @@ OGRSpatialReference wgs84_lon_lat() {
   return srs;
 }
 
+// Decimals needed to write x exactly (up to 12): 0.1 → 1, 0.25 → 2, 2 → 0. A scaled integer
+// layer (e.g. tenths of a degree stored as Int16) is rounded to that, so 112 × 0.1 reads 11.2,
+// not 11.200000000000001.
+int decimals_of(double x) {
+  for (int d = 0; d < 12; ++d) {
+    const double p = std::pow(10.0, d);
+    if (std::fabs(std::round(x * p) - x * p) < 1e-9 * std::max(1.0, std::fabs(x * p))) return d;
+  }
+  return 12;
+}
+
 LayerInfo describe_layer(const LayerSpec& spec) {
   auto ds = open_raster(spec.path);
   LayerInfo info;
@@ -75,7 +86,10 @@ LayerInfo describe_layer(const LayerSpec& spec) {
   info.offset = band->GetOffset();
   info.data_type = GDALGetDataTypeName(band->GetRasterDataType());
   band->GetBlockSize(&info.block_width, &info.block_height);
-  info.float32_values = band->GetRasterDataType() == GDT_Float32 && info.scale == 1 && info.offset == 0;
+  const GDALDataType type = band->GetRasterDataType();
+  info.float32_values = type == GDT_Float32 && info.scale == 1 && info.offset == 0;
+  if (!GDALDataTypeIsFloating(type) && !GDALDataTypeIsComplex(type) && (info.scale != 1 || info.offset != 0))
+    info.decimals = std::max(decimals_of(info.scale), decimals_of(info.offset));
   return info;
 }
 
@@ -86,6 +100,11 @@ struct Location {
   double px, py;     // position in pixel units (cell centres at .5)
   std::uint64_t block;
 };
+
+double round_to(double v, int decimals) {
+  const double p = std::pow(10.0, decimals);
+  return std::round(v * p) / p;
+}
 
 std::uint64_t mix(std::uint64_t h, std::uint64_t v) {
   h ^= v + 0x9E3779B97F4A7C15ull + (h << 6) + (h >> 2);
@@ -265,7 +284,11 @@ Samples RasterStack::sample(const std::vector<double>& longitude, const std::vec
             }
           }
           out.status[p.record * L + l] = status;
-          if (status == CellStatus::ok) out.values(p.record, static_cast<Eigen::Index>(l)) = value * layer.scale + layer.offset;
+          if (status == CellStatus::ok) {
+            double v = value * layer.scale + layer.offset;
+            if (layer.decimals >= 0 && method == Interpolation::nearest) v = round_to(v, layer.decimals);
+            out.values(p.record, static_cast<Eigen::Index>(l)) = v;
+          }
         }
       } catch (...) {
         errors[static_cast<std::size_t>(g)] = std::current_exception();

@@ -41,6 +41,7 @@ struct LayerInfo {
   std::string data_type;      // GDAL's name, e.g. "Float32"
   int block_width = 0, block_height = 0;
   bool float32_values = false;  // unscaled Float32: values are printed as 32-bit floats
+  int decimals = -1;  // integer cells with scale/offset: values are rounded to this many decimals
 };
 
 enum class CellStatus : std::uint8_t { ok, no_point, outside, nodata };
