@@ -1,0 +1,82 @@
+// End to end on the demo data: the planted errors listed in demo-points/truth.csv (written by
+// scripts/make-demo-data.py when it planted them) are the top-ranked records, and every input
+// record appears exactly once in the output.
+#include <algorithm>
+#include <map>
+#include <set>
+
+#include <gtest/gtest.h>
+
+#include "../support.hpp"
+
+namespace envsift {
+namespace {
+
+using namespace envsift::testing;
+
+std::string screen_command(const std::string& out, const std::string& extra = "") {
+  return envsift_binary() + " screen --points " + source_path("demo-points/occurrences.csv") + " --layers " +
+         source_path("demo-rasters/dem.tif") + " " + source_path("demo-rasters/temperature.tif") + " " +
+         source_path("demo-rasters/rainfall.tif") + " " + source_path("demo-rasters/dry_months.tif") +
+         " --out " + out + " " + extra;
+}
+
+TEST(DemoScreen, PlantedErrorsRankFirstAndNoRecordIsLost) {
+  const auto dir = temp_dir("demo-screen");
+  auto r = run(screen_command(dir + "/out.csv"));
+  ASSERT_EQ(r.exit_code, 0) << r.output;
+  const Table in = read_csv(source_path("demo-points/occurrences.csv"));
+  const Table out = read_csv(dir + "/out.csv");
+  const Table truth = read_csv(source_path("demo-points/truth.csv"));
+
+  // every record once, in input order, with its original fields untouched
+  ASSERT_EQ(out.rows.size(), in.rows.size());
+  for (std::size_t i = 0; i < in.rows.size(); ++i)
+    ASSERT_TRUE(std::equal(in.rows[i].begin(), in.rows[i].end(), out.rows[i].begin())) << "row " << i;
+  const std::vector<std::string> tail = {"dem", "temperature", "rainfall", "dry_months",
+                                         "status", "rank", "score", "flags", "reasons"};
+  ASSERT_TRUE(std::equal(tail.begin(), tail.end(), out.header.begin() + static_cast<long>(in.header.size())));
+
+  std::map<std::string, const std::vector<std::string>*> by_id;
+  for (const auto& row : out.rows) by_id[row[0]] = &row;
+  const std::size_t rank = out.column("rank"), status = out.column("status"), flags = out.column("flags");
+  std::size_t planted = 0;
+  for (const auto& t : truth.rows) {
+    const auto& row = *by_id.at(t[0]);
+    if (t[2] == "yes") {  // an environmental outlier: must be among the first ranks, flagged
+      ++planted;
+      ASSERT_FALSE(row[rank].empty()) << t[0];
+      EXPECT_LE(std::stoul(row[rank]), 5u) << t[0] << " (" << t[1] << ")";
+      EXPECT_EQ(row[flags], "robust_z") << t[0];
+    } else {  // an input problem: kept, unranked, its reason code first in the status
+      EXPECT_TRUE(row[rank].empty()) << t[0];
+      EXPECT_EQ(row[status].substr(0, t[1].size()), t[1]) << t[0];
+    }
+  }
+  EXPECT_EQ(planted, 5u);
+  EXPECT_NE(r.output.find(std::to_string(in.rows.size()) + " records read"), std::string::npos) << r.output;
+}
+
+TEST(DemoScreen, OutputIsByteIdenticalForOneAndTwoThreads) {
+  const auto dir = temp_dir("demo-threads");
+  for (const std::string threads : {"1", "2"}) {
+    auto r = run(screen_command(dir + "/out" + threads + ".csv", "--threads " + threads + " --method bilinear"));
+    ASSERT_EQ(r.exit_code, 0) << r.output;
+  }
+  EXPECT_EQ(read_file(dir + "/out1.csv"), read_file(dir + "/out2.csv"));
+  EXPECT_GT(read_file(dir + "/out1.csv").size(), 10000u);
+}
+
+TEST(DemoScreen, SmallTaxonIsNotJudged) {
+  const auto dir = temp_dir("demo-small");
+  ASSERT_EQ(run(screen_command(dir + "/out.csv")).exit_code, 0);
+  const Table out = read_csv(dir + "/out.csv");
+  for (const auto& row : out.rows)
+    if (row[1] == "Petricola rara") {
+      EXPECT_EQ(row[out.column("status")], "too_few_records:robust_z");
+      EXPECT_TRUE(row[out.column("rank")].empty());
+    }
+}
+
+}  // namespace
+}  // namespace envsift

@@ -1,0 +1,78 @@
+// Helpers shared by the tests: paths, running commands, reading CSV results.
+#pragma once
+#include <cstdio>
+#include <fstream>
+#include <map>
+#include <sstream>
+#include <string>
+#include <vector>
+
+#include <gtest/gtest.h>
+
+#include "envsift/read/csv_reader.hpp"
+
+namespace envsift::testing {
+
+inline std::string source_path(const std::string& relative) { return std::string(ENVSIFT_SOURCE_DIR) + "/" + relative; }
+inline std::string envsift_binary() { return ENVSIFT_BINARY; }
+
+// A fresh directory for one test's files.
+inline std::string temp_dir(const std::string& name) {
+  std::string dir = ::testing::TempDir() + "envsift-" + name;
+  std::string cmd = "rm -rf '" + dir + "' && mkdir -p '" + dir + "'";
+  if (std::system(cmd.c_str()) != 0) ADD_FAILURE() << "cannot create " << dir;
+  return dir;
+}
+
+inline void write_file(const std::string& path, const std::string& content) {
+  std::ofstream(path, std::ios::binary) << content;
+}
+
+inline std::string read_file(const std::string& path) {
+  std::ifstream in(path, std::ios::binary);
+  std::stringstream s;
+  s << in.rdbuf();
+  return s.str();
+}
+
+struct CommandResult {
+  int exit_code;
+  std::string output;  // stdout and stderr together
+};
+
+inline CommandResult run(const std::string& command) {
+  CommandResult r{-1, ""};
+  std::FILE* p = ::popen((command + " 2>&1").c_str(), "r");
+  if (!p) return r;
+  char buf[4096];
+  std::size_t got;
+  while ((got = std::fread(buf, 1, sizeof buf, p)) > 0) r.output.append(buf, got);
+  const int status = ::pclose(p);
+  r.exit_code = WIFEXITED(status) ? WEXITSTATUS(status) : -1;
+  return r;
+}
+
+// A CSV file as header + rows of fields.
+struct Table {
+  std::vector<std::string> header;
+  std::vector<std::vector<std::string>> rows;
+  std::size_t column(const std::string& name) const {
+    for (std::size_t i = 0; i < header.size(); ++i)
+      if (header[i] == name) return i;
+    ADD_FAILURE() << "no column " << name;
+    return 0;
+  }
+};
+
+inline Table read_csv(const std::string& path) {
+  std::ifstream in(path, std::ios::binary);
+  CsvReader reader(in, ',', path);
+  Table t;
+  std::size_t line;
+  reader.next(t.header, line);
+  std::vector<std::string> row;
+  while (reader.next(row, line)) t.rows.push_back(row);
+  return t;
+}
+
+}  // namespace envsift::testing
