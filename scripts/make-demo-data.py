@@ -18,6 +18,7 @@ Petricola rara (a handful of records: too few to judge). Planted errors are list
 demo-points/truth.csv. Deterministic: same script, same bytes.
 
 usage: scripts/make-demo-data.py [OUTPUT_ROOT]   (default: the project root)
+needs: scripts/install-deps --reference-tools (Debian python3-gdal, python3-numpy)
 """
 import csv
 import math

@@ -1,5 +1,5 @@
 # Reference fixture for bilinear sampling, made with R's terra (Debian r-cran-terra).
-# Run from this folder: Rscript make_fixture.R
+# Needs: scripts/install-deps --reference-tools. Run from this folder: Rscript make_fixture.R
 # Writes grid.tif (a small non-linear 7 x 6 grid, EPSG:4326) and expected.csv (interior points
 # with terra::extract(method = "bilinear") values).
 library(terra)
