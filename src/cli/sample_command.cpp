@@ -10,7 +10,8 @@ int sample_command(int argc, char** argv) {
   po::options_description d(
       "Sample every raster layer at every record's coordinates. Output: every input record once, in input\n"
       "order, with its original columns, one column per layer and a `status` column (`ok` or reason codes\n"
-      "such as outside_layer:NAME, nodata:NAME, coord_missing).\n\nOptions");
+      "such as outside_layer:NAME, nodata:NAME, coord_missing).\n\nOptions",
+      100, 50);
   add_sampling_options(d, o);
   po::variables_map vm;
   if (!parse(argc, argv, "sample", "--points FILE --layers RASTER... --out FILE.csv [options]", d, vm)) return 0;

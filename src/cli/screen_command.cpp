@@ -12,7 +12,8 @@ int screen_command(int argc, char** argv) {
       "Sample the layers, then judge each record against the other records of its taxon and rank all\n"
       "records, most suspicious first. Output: the `sample` columns plus `rank` (1 = look at this first),\n"
       "`score` (above 1 = flagged by at least one test), `flags` (tests that fired) and `reasons`.\n"
-      "Flags are reasons to look, not proof of error: review flagged records before removing any.\n\nOptions");
+      "Flags are reasons to look, not proof of error: review flagged records before removing any.\n\nOptions",
+      100, 50);
   add_sampling_options(d, o);
   d.add_options()
     ("z-cutoff", po::value(&o.robust_z.cutoff)->default_value(o.robust_z.cutoff)->value_name("Z"),
