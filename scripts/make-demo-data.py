@@ -13,7 +13,7 @@ Layers (each on its own grid, to exercise per-layer handling):
 Temperature falls 6.5 deg C per km of elevation (ICAO Standard Atmosphere lapse rate); rainfall
 rises on the windward (west) slope and drops in the lee.
 
-Taxa: Orophila nivicola (montane), Campestra humilis (lowland), Errantia vulgaris (generalist),
+Taxa: Orophila nivicola (montane), Campestra humilis (moist lowland), Errantia vulgaris (generalist),
 Petricola rara (a handful of records: too few to judge). Planted errors are listed in
 demo-points/truth.csv. Deterministic: same script, same bytes.
 
@@ -153,7 +153,7 @@ def make_points():
     taxa = [
         ("Orophila nivicola", 320, lambda lo, la: math.exp(-((elevation(lo, la) - 1900) / 280) ** 2)),
         ("Campestra humilis", 260,
-         lambda lo, la: math.exp(-((elevation(lo, la) - 180) / 120) ** 2) * min(1, rainfall(lo, la) / 1000)),
+         lambda lo, la: math.exp(-((elevation(lo, la) - 180) / 120) ** 2 - ((rainfall(lo, la) - 1000) / 200) ** 2)),
         ("Errantia vulgaris", 300, None),  # found at every elevation: see draw_across_elevations
         ("Petricola rara", 5, lambda lo, la: math.exp(-((elevation(lo, la) - 1500) / 200) ** 2)),
     ]

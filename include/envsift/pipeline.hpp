@@ -2,10 +2,14 @@
 //   read points → sample raster stack → group by taxon → tests → score and rank → write.
 #pragma once
 #include <cstddef>
+#include <cstdint>
 #include <map>
 #include <string>
 #include <vector>
 
+#include "envsift/detect/fast_mcd.hpp"
+#include "envsift/detect/mahalanobis.hpp"
+#include "envsift/detect/reverse_jackknife.hpp"
 #include "envsift/detect/robust_z.hpp"
 #include "envsift/read/point_reader.hpp"
 #include "envsift/sample/raster_stack.hpp"
@@ -23,15 +27,25 @@ struct SampleOptions {
 
 enum class RowOrder { input, rank };
 
+// Every test envsift knows, in the order their columns are written.
+const std::vector<std::string>& all_test_names();
+
 struct ScreenOptions : SampleOptions {
+  std::vector<std::string> tests = all_test_names();
   RobustZOptions robust_z;
+  ReverseJackknifeOptions jackknife;
+  MahalanobisOptions mahalanobis;
+  McdOptions mcd;
+  bool distinct_cells = true;  // estimate each taxon's statistics on distinct cells
+  std::uint64_t seed = 1;
+  std::vector<std::string> value_columns;  // screen these input columns instead of sampling layers
+  bool single_taxon = false;               // one group for the whole file
   RowOrder order = RowOrder::input;
 };
 
 // Where the records went: every record read is counted once as scored or as not scorable.
 struct RunSummary {
   std::size_t read = 0;
-  std::size_t sampled = 0;   // at least one layer value
   std::size_t scored = 0;
   std::size_t flagged = 0;
   std::map<std::string, std::size_t> not_scored;  // by first reason code

@@ -18,6 +18,9 @@ inline const std::string taxon_missing = "taxon_missing";            // empty ta
 // Sampling (suffix ":<layer>")
 inline const std::string outside_layer = "outside_layer";  // point falls outside the raster's extent
 inline const std::string nodata = "nodata";                // the cell holds the layer's nodata value
+// Pre-sampled values (suffix ":<column>")
+inline const std::string value_missing = "value_missing";          // the value column is empty
+inline const std::string value_not_numeric = "value_not_numeric";  // the value column is not a number
 // Screening
 inline const std::string no_values = "no_values";          // no layer value at all to test
 inline const std::string too_few_records = "too_few_records";  // taxon too small for every test

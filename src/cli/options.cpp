@@ -7,12 +7,14 @@
 
 namespace envsift::cli {
 
-void add_sampling_options(po::options_description& d, SampleOptions& o) {
+void add_sampling_options(po::options_description& d, SampleOptions& o, bool layers_required) {
   ColumnNames& c = o.reader.columns;
+  auto* layers = po::value(&o.layers)->multitoken()->value_name("RASTER...");
+  if (layers_required) layers->required();
   d.add_options()
     ("points", po::value(&o.points)->required()->value_name("FILE"),
      "occurrence records: CSV or TSV with a header line, or a GeoPackage, GeoJSON or Shapefile of points")
-    ("layers", po::value(&o.layers)->required()->multitoken()->value_name("RASTER..."),
+    ("layers", layers,
      "raster layers to sample (GeoTIFF or any GDAL raster). Each becomes a column named after its file; "
      "write NAME=PATH to choose the name. Layers may differ in CRS, resolution and extent.")
     ("out", po::value(&o.out)->required()->value_name("FILE.csv"), "where to write the result (CSV)")

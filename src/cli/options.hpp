@@ -11,7 +11,7 @@ namespace envsift::cli {
 namespace po = boost::program_options;
 
 // Adds --points, --layers, --method, --out, column names, --threads and --block-cache-mb.
-void add_sampling_options(po::options_description& d, SampleOptions& o);
+void add_sampling_options(po::options_description& d, SampleOptions& o, bool layers_required = true);
 
 // Parses argv; returns false after printing help. Throws UsageError on bad options.
 bool parse(int argc, char** argv, const std::string& command, const std::string& synopsis,

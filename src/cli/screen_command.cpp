@@ -1,40 +1,81 @@
 #include <iostream>
+#include <sstream>
 
 #include "commands.hpp"
 #include "envsift/errors.hpp"
 #include "options.hpp"
 
 namespace envsift::cli {
+namespace {
+
+std::vector<std::string> split_list(const std::string& text) {
+  std::vector<std::string> items;
+  std::stringstream in(text);
+  std::string item;
+  while (std::getline(in, item, ','))
+    if (!item.empty()) items.push_back(item);
+  return items;
+}
+
+}  // namespace
 
 int screen_command(int argc, char** argv) {
   ScreenOptions o;
+  std::string tests = "robust_z,reverse_jackknife,mahalanobis,mahalanobis_robust", value_columns;
+  std::size_t min_records = 10;
   po::options_description d(
       "Sample the layers, then judge each record against the other records of its taxon and rank all\n"
       "records, most suspicious first. Output: the `sample` columns plus `rank` (1 = look at this first),\n"
-      "`score` (above 1 = flagged by at least one test), `flags` (tests that fired) and `reasons`.\n"
-      "Flags are reasons to look, not proof of error: review flagged records before removing any.\n\nOptions",
+      "`score` (above 1 = flagged by at least one test), `flags` (tests that fired), `reasons`, and each\n"
+      "test's statistic and cutoff. Flags are reasons to look, not proof of error: review flagged records\n"
+      "before removing any.\n\nOptions",
       100, 50);
-  add_sampling_options(d, o);
+  add_sampling_options(d, o, false);
   d.add_options()
+    ("tests", po::value(&tests)->default_value(tests)->value_name("LIST"),
+     "tests to run, comma-separated. robust_z: one layer at a time, distance from the taxon's median; "
+     "reverse_jackknife: one layer at a time, a gap cutting off a tail; mahalanobis: all layers together, "
+     "classical mean/covariance; mahalanobis_robust: all layers together, FAST-MCD estimates that outliers "
+     "cannot distort. All four by default: each catches errors the others miss.")
     ("z-cutoff", po::value(&o.robust_z.cutoff)->default_value(o.robust_z.cutoff)->value_name("Z"),
-     "flag a record whose value on a layer is more than Z scaled MADs from its taxon's median. 3 is "
-     "'very conservative' in Leys et al. (2013); 2.5 flags more good records")
-    ("min-records", po::value(&o.robust_z.min_records)->default_value(o.robust_z.min_records)->value_name("N"),
-     "a taxon needs at least N values on a layer to be judged on it; smaller taxa get too_few_records")
+     "robust_z flags |z| > Z. 3 is 'very conservative' in Leys et al. (2013); lower values flag more good "
+     "records, and a record is judged on every layer")
+    ("chi2-quantile", po::value(&o.mahalanobis.quantile)->default_value(o.mahalanobis.quantile)->value_name("Q"),
+     "the Mahalanobis tests flag D² above the Q quantile of chi-square (Rousseeuw & van Zomeren 1990 use 0.975)")
+    ("min-records", po::value(&min_records)->default_value(min_records)->value_name("N"),
+     "a taxon needs N values (distinct cells) on a layer for the one-layer tests, and N complete rows for "
+     "the Mahalanobis tests, which also use at most one dimension per 3 rows; smaller taxa get "
+     "too_few_records:TEST")
+    ("all-records", po::bool_switch(),
+     "estimate each taxon's statistics from every record, not from one record per distinct cell (the "
+     "default, so that fifty records in one cell neither zero the spread nor hide an outlier)")
+    ("seed", po::value(&o.seed)->default_value(o.seed)->value_name("N"),
+     "seed of the random subsets of mahalanobis_robust; the same seed gives the same output")
+    ("value-columns", po::value(&value_columns)->value_name("A,B,..."),
+     "screen values already in the points file (these columns) instead of sampling --layers")
+    ("single-taxon", po::bool_switch(&o.single_taxon), "treat the whole file as one taxon (no taxon column needed)")
     ("order", po::value<std::string>()->default_value("input")->value_name("input|rank"),
      "row order of the output: input order, or by rank (unscored records last)");
   po::variables_map vm;
-  if (!parse(argc, argv, "screen", "--points FILE --layers RASTER... --out FILE.csv [options]", d, vm)) return 0;
+  if (!parse(argc, argv, "screen",
+             "--points FILE (--layers RASTER... | --value-columns A,B,...) --out FILE.csv [options]", d, vm))
+    return 0;
   finish_sampling_options(vm, o);
-  o.reader.require_taxon = true;
+  o.tests = split_list(tests);
+  o.value_columns = split_list(value_columns);
+  if (o.value_columns.empty() && o.layers.empty()) throw UsageError("give --layers (rasters to sample) or --value-columns");
+  if (!o.value_columns.empty() && !o.layers.empty()) throw UsageError("give either --layers or --value-columns, not both");
+  o.distinct_cells = !vm["all-records"].as<bool>();
+  o.reader.require_taxon = !o.single_taxon;
+  o.robust_z.min_records = o.jackknife.min_records = o.mahalanobis.min_records = min_records;
   const std::string order = vm["order"].as<std::string>();
   if (order == "rank") o.order = RowOrder::rank;
   else if (order != "input") throw UsageError("--order must be input or rank, not '" + order + "'");
   if (!(o.robust_z.cutoff > 0)) throw UsageError("--z-cutoff must be a positive number");
-  if (o.robust_z.min_records < 3) throw UsageError("--min-records must be at least 3");
+  if (!(o.mahalanobis.quantile > 0 && o.mahalanobis.quantile < 1)) throw UsageError("--chi2-quantile must be between 0 and 1");
+  if (min_records < 3) throw UsageError("--min-records must be at least 3");
   const RunSummary summary = run_screen(o);
-  std::cerr << summary.line() << "\nenvsift: wrote " << o.out
-            << " (flags are for review, not automatic removal)\n";
+  std::cerr << summary.line() << "\nenvsift: wrote " << o.out << " (flags are for review, not automatic removal)\n";
   return 0;
 }
 

@@ -3,13 +3,19 @@
 // use standard deviation around the mean, use absolute deviation around the median. Journal of
 // Experimental Social Psychology 49:764-766.
 //
-//   MAD = median_i |x_i - median(x)|,   s = b · MAD with b = 1.4826 = 1/Φ⁻¹(3/4)
-//   z_i = (x_i - median(x)) / s,        flagged when |z_i| > cutoff
+//   MAD = median_i |x_i − median(x)|,   s = b · MAD,  b = 1.4826 = 1/Φ⁻¹(3/4)
+//   z_i = (x_i − median(x)) / s,        flagged when |z_i| > cutoff
 //
-// Leys et al. call 3 very conservative, 2.5 moderately and 2 poorly conservative. envsift's
-// default is 3: a record is judged on several layers at once, so the per-layer false-flag rate
-// multiplies. A layer with fewer than `min_records` reference values, or with MAD = 0, is not
-// tested for that taxon (the reason says so).
+// Leys et al. call 3 very conservative, 2.5 moderately and 2 poorly conservative; envsift's
+// default is 3 because a record is judged on several layers at once.
+//
+// MAD = 0 happens when more than half the values are equal (many records in one cell, a layer
+// of few classes). Sn and Qn (Rousseeuw & Croux 1993) are then 0 as well, so they are no
+// fallback; envsift uses s = 1.253314 · mean_i |x_i − median(x)| instead (1.253314 = √(π/2)
+// makes the mean absolute deviation consistent with the normal SD; this MAD = 0 rule is the
+// one IBM documents for its modified z-score — from memory). Only when every value is equal is
+// the layer not judged (`no_spread:LAYER`). A layer with fewer than `min_records` reference values
+// is not judged either (`too_few_records:robust_z`).
 #include "envsift/detect/robust_z.hpp"
 
 #include <algorithm>
@@ -20,6 +26,7 @@ namespace envsift {
 namespace {
 
 constexpr double kMadToSd = 1.4826;
+constexpr double kMeanAdToSd = 1.253314;
 
 double median_in_place(std::vector<double>& v) {
   const std::size_t n = v.size(), mid = n / 2;
@@ -39,13 +46,20 @@ std::string describe(const std::string& layer, double value, double z, double me
 
 }  // namespace
 
-Spread median_and_scaled_mad(std::vector<double> values) {
+RobustSpread robust_spread(std::vector<double> values) {
   values.erase(std::remove_if(values.begin(), values.end(), [](double v) { return !std::isfinite(v); }),
                values.end());
-  if (values.empty()) return {std::nan(""), std::nan("")};
+  if (values.empty()) return {std::nan(""), std::nan(""), false};
   const double median = median_in_place(values);
-  for (double& v : values) v = std::fabs(v - median);
-  return {median, kMadToSd * median_in_place(values)};
+  double mean_deviation = 0;
+  for (double& v : values) {
+    v = std::fabs(v - median);
+    mean_deviation += v;
+  }
+  mean_deviation /= static_cast<double>(values.size());
+  const double mad = median_in_place(values);
+  if (mad > 0) return {median, kMadToSd * mad, false};
+  return {median, kMeanAdToSd * mean_deviation, true};
 }
 
 std::vector<Finding> RobustZ::judge(const TaxonValues& taxon) const {
@@ -64,28 +78,30 @@ std::vector<Finding> RobustZ::judge(const TaxonValues& taxon) const {
       untested = "too_few_records:" + this->name();
       continue;
     }
-    const Spread s = median_and_scaled_mad(std::move(ref));
-    if (!(s.scaled_mad > 0)) {
+    const RobustSpread s = robust_spread(std::move(ref));
+    if (!(s.spread > 0)) {
       untested = "no_spread:" + name;
       continue;
     }
     for (std::size_t i = 0; i < rows; ++i) {
       const double x = taxon.records(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(l));
       if (!std::isfinite(x)) continue;
-      const double z = (x - s.median) / s.scaled_mad;
+      const double z = (x - s.median) / s.spread;
       Finding& f = findings[i];
-      f.threshold = options_.cutoff;
       if (!f.tested || std::fabs(z) > f.statistic) f.statistic = std::fabs(z);
       f.tested = true;
-      if (std::fabs(z) > options_.cutoff) {
-        f.flagged = true;
-        drivers[i].emplace_back(std::fabs(z), describe(name, x, z, s.median));
-      }
+      if (std::fabs(z) > options_.cutoff) drivers[i].emplace_back(std::fabs(z), describe(name, x, z, s.median));
     }
   }
   for (std::size_t i = 0; i < rows; ++i) {
     Finding& f = findings[i];
-    if (!f.tested) f.untested_reason = untested.empty() ? "no_values" : untested;
+    if (!f.tested) {
+      f.untested_reason = untested.empty() ? "no_values" : untested;
+      continue;
+    }
+    f.threshold = options_.cutoff;
+    f.severity = f.statistic / f.threshold;
+    f.flagged = f.statistic > f.threshold;
     // the layer furthest out first; ties keep layer order
     std::stable_sort(drivers[i].begin(), drivers[i].end(),
                      [](const auto& a, const auto& b) { return a.first > b.first; });

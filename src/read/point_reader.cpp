@@ -53,7 +53,7 @@ std::string list_columns(const std::vector<std::string>& columns) {
 }
 
 struct ColumnIndex {
-  std::size_t longitude, latitude;
+  std::optional<std::size_t> longitude, latitude;
   std::optional<std::size_t> id, taxon, uncertainty;
 };
 
@@ -66,10 +66,17 @@ ColumnIndex locate_columns(const PointTable& table, const ReaderOptions& o) {
                        "name the column holding the " + role + " with " + option);
     return *i;
   };
-  ColumnIndex ix{required(o.columns.longitude, "longitude", "--longitude-column"),
-                 required(o.columns.latitude, "latitude", "--latitude-column"),
-                 find_column(table.columns, o.columns.id), std::nullopt,
-                 find_column(table.columns, o.columns.uncertainty)};
+  ColumnIndex ix;
+  if (o.coordinates_optional) {
+    ix.longitude = find_column(table.columns, o.columns.longitude);
+    ix.latitude = find_column(table.columns, o.columns.latitude);
+    if (!ix.longitude || !ix.latitude) ix.longitude = ix.latitude = std::nullopt;
+  } else {
+    ix.longitude = required(o.columns.longitude, "longitude", "--longitude-column");
+    ix.latitude = required(o.columns.latitude, "latitude", "--latitude-column");
+  }
+  ix.id = find_column(table.columns, o.columns.id);
+  ix.uncertainty = find_column(table.columns, o.columns.uncertainty);
   if (o.require_taxon) ix.taxon = required(o.columns.taxon, "taxon", "--taxon-column");
   else ix.taxon = find_column(table.columns, o.columns.taxon);
   return ix;
@@ -81,15 +88,17 @@ void parse_record(Occurrence& r, const ColumnIndex& ix, std::size_t column_count
     r.problems.push_back(reason::ragged_row);
     r.fields.resize(column_count);  // keeps columns aligned in every output
   }
-  auto lon = parse_coordinate(r.fields[ix.longitude], Axis::longitude);
-  auto lat = parse_coordinate(r.fields[ix.latitude], Axis::latitude);
-  for (const auto* p : {&lon, &lat})
-    if (!p->problem.empty() &&
-        std::find(r.problems.begin(), r.problems.end(), p->problem) == r.problems.end())
-      r.problems.push_back(p->problem);
-  if (lon.problem.empty() && lat.problem.empty()) {
-    r.longitude = lon.value;
-    r.latitude = lat.value;
+  if (ix.longitude && ix.latitude) {
+    auto lon = parse_coordinate(r.fields[*ix.longitude], Axis::longitude);
+    auto lat = parse_coordinate(r.fields[*ix.latitude], Axis::latitude);
+    for (const auto* p : {&lon, &lat})
+      if (!p->problem.empty() &&
+          std::find(r.problems.begin(), r.problems.end(), p->problem) == r.problems.end())
+        r.problems.push_back(p->problem);
+    if (lon.problem.empty() && lat.problem.empty()) {
+      r.longitude = lon.value;
+      r.latitude = lat.value;
+    }
   }
   if (ix.id) r.id = r.fields[*ix.id];
   if (ix.taxon) r.taxon = std::string(trim(r.fields[*ix.taxon]));
@@ -194,8 +203,8 @@ PointTable read_vector(const std::string& path, const ReaderOptions& o) {
       if (g && !g->IsEmpty()) {
         double x = g->toPoint()->getX(), y = g->toPoint()->getY();
         if (!to_wgs84 || to_wgs84->Transform(1, &x, &y)) {
-          r.fields[ix.longitude] = shortest(x);
-          r.fields[ix.latitude] = shortest(y);
+          r.fields[*ix.longitude] = shortest(x);
+          r.fields[*ix.latitude] = shortest(y);
         }
       }
     }

@@ -14,14 +14,14 @@ Verdict combine(const std::vector<const Finding*>& findings, const std::vector<s
       v.untested.push_back(f.untested_reason);
       continue;
     }
-    v.score = std::max(v.score.value_or(0.0), f.severity());
+    v.score = std::max(v.score.value_or(0.0), f.severity);
     if (f.flagged) {
       v.flags.push_back(names[t]);
       order.push_back(t);
     }
   }
   std::stable_sort(order.begin(), order.end(),
-                   [&](std::size_t a, std::size_t b) { return findings[a]->severity() > findings[b]->severity(); });
+                   [&](std::size_t a, std::size_t b) { return findings[a]->severity > findings[b]->severity; });
   for (std::size_t t : order)
     for (const auto& r : findings[t]->reasons) v.reasons.push_back(r);
   return v;

@@ -14,6 +14,13 @@ std::string format_value(double value, bool as_float32) {
   return std::string(buf, res.ptr);
 }
 
+std::string format_statistic(double value) {
+  if (std::isnan(value)) return "";
+  char buf[64];
+  std::snprintf(buf, sizeof buf, "%.6g", value);
+  return buf;
+}
+
 std::string format_score(double score) {
   char buf[64];
   std::snprintf(buf, sizeof buf, "%.3f", score);

@@ -33,8 +33,11 @@ TEST(DemoScreen, PlantedErrorsRankFirstAndNoRecordIsLost) {
   ASSERT_EQ(out.rows.size(), in.rows.size());
   for (std::size_t i = 0; i < in.rows.size(); ++i)
     ASSERT_TRUE(std::equal(in.rows[i].begin(), in.rows[i].end(), out.rows[i].begin())) << "row " << i;
-  const std::vector<std::string> tail = {"dem", "temperature", "rainfall", "dry_months",
-                                         "status", "rank", "score", "flags", "reasons"};
+  const std::vector<std::string> tail = {"dem", "temperature", "rainfall", "dry_months", "status", "rank", "score",
+                                         "flags", "reasons", "robust_z_stat", "robust_z_cutoff",
+                                         "reverse_jackknife_stat", "reverse_jackknife_cutoff", "mahalanobis_stat",
+                                         "mahalanobis_cutoff", "mahalanobis_dims", "mahalanobis_robust_stat",
+                                         "mahalanobis_robust_cutoff", "mahalanobis_robust_dims"};
   ASSERT_TRUE(std::equal(tail.begin(), tail.end(), out.header.begin() + static_cast<long>(in.header.size())));
 
   std::map<std::string, const std::vector<std::string>*> by_id;
@@ -47,7 +50,7 @@ TEST(DemoScreen, PlantedErrorsRankFirstAndNoRecordIsLost) {
       ++planted;
       ASSERT_FALSE(row[rank].empty()) << t[0];
       EXPECT_LE(std::stoul(row[rank]), 5u) << t[0] << " (" << t[1] << ")";
-      EXPECT_EQ(row[flags], "robust_z") << t[0];
+      EXPECT_EQ(row[flags], "robust_z;reverse_jackknife;mahalanobis;mahalanobis_robust") << t[0];
     } else {  // an input problem: kept, unranked, its reason code first in the status
       EXPECT_TRUE(row[rank].empty()) << t[0];
       EXPECT_EQ(row[status].substr(0, t[1].size()), t[1]) << t[0];
@@ -73,7 +76,9 @@ TEST(DemoScreen, SmallTaxonIsNotJudged) {
   const Table out = read_csv(dir + "/out.csv");
   for (const auto& row : out.rows)
     if (row[1] == "Petricola rara") {
-      EXPECT_EQ(row[out.column("status")], "too_few_records:robust_z");
+      EXPECT_EQ(row[out.column("status")],
+                "too_few_records:robust_z;too_few_records:reverse_jackknife;too_few_records:mahalanobis;"
+                "too_few_records:mahalanobis_robust");
       EXPECT_TRUE(row[out.column("rank")].empty());
     }
 }

@@ -2,6 +2,7 @@
 // taxon's records on each layer — and knows nothing of files, CRS or the command line.
 #pragma once
 #include <cmath>
+#include <cstdint>
 #include <string>
 #include <vector>
 
@@ -10,31 +11,40 @@
 namespace envsift {
 
 // The values of one taxon. `reference` holds the rows the taxon's statistics are estimated from
-// (e.g. one row per distinct raster cell); `records` holds the rows to judge, one per record.
-// Both are rows × layers with NaN for a missing value.
+// (one row per distinct raster cell by default); `records` holds the rows to judge, one per
+// record. Both are rows × layers with NaN for a missing value.
 struct TaxonValues {
   const Eigen::MatrixXd& reference;
   const Eigen::MatrixXd& records;
   const std::vector<std::string>& layer_names;
+  std::uint64_t seed = 0;  // for randomised tests; derived from the run's seed and the taxon name
 };
 
 // What one test says of one record.
 struct Finding {
-  bool tested = false;             // false: the test could not judge this record (see `untested_reason`)
-  double statistic = std::nan(""); // the test's own statistic (e.g. the largest |robust z|)
-  double threshold = std::nan(""); // the value beyond which the record is flagged
+  bool tested = false;               // false: the test could not judge this record (see `untested_reason`)
+  double statistic = std::nan("");   // the test's own statistic (e.g. the largest |robust z|, D²)
+  double threshold = std::nan("");   // the value beyond which the record is flagged
+  double severity = std::nan("");    // on a common scale across tests: 1 at the threshold
   bool flagged = false;
+  std::vector<double> extras;        // values of the test's extra_columns(), NaN when unknown
   std::vector<std::string> reasons;  // plain words for a flagged record: which layer, how far
   std::string untested_reason;       // a reason code when not tested, e.g. too_few_records:robust_z
-
-  double severity() const { return tested ? statistic / threshold : std::nan(""); }
 };
 
 class Detector {
  public:
   virtual ~Detector() = default;
-  virtual std::string name() const = 0;  // the word written to the `flags` column
+  virtual std::string name() const = 0;  // the word written to `flags`, and the prefix of its columns
+  virtual std::vector<std::string> extra_columns() const { return {}; }
   virtual std::vector<Finding> judge(const TaxonValues& taxon) const = 0;
 };
+
+// Findings for a taxon no record of which can be judged.
+inline std::vector<Finding> untested(std::size_t rows, const std::string& reason) {
+  std::vector<Finding> f(rows);
+  for (auto& x : f) x.untested_reason = reason;
+  return f;
+}
 
 }  // namespace envsift

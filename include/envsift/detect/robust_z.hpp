@@ -1,14 +1,15 @@
-// Robust z per layer: how many scaled MADs a record lies from its taxon's median.
+// Robust z per layer: how many robust standard deviations a record lies from its taxon's median.
 #pragma once
 #include <cstddef>
+#include <vector>
 
 #include "envsift/detect/detector.hpp"
 
 namespace envsift {
 
 struct RobustZOptions {
-  double cutoff = 3.0;            // |z| beyond this flags (Leys et al. 2013: 3 = very conservative)
-  std::size_t min_records = 8;    // fewer reference values on a layer: that layer is not tested
+  double cutoff = 3.0;          // |z| beyond this flags (Leys et al. 2013: 3 = very conservative)
+  std::size_t min_records = 10;  // fewer reference values on a layer: that layer is not judged
 };
 
 class RobustZ : public Detector {
@@ -21,11 +22,14 @@ class RobustZ : public Detector {
   RobustZOptions options_;
 };
 
-// Median and scaled MAD (1.4826 · MAD) of the finite values; NaN for an empty input.
-struct Spread {
+// Centre and robust spread of the finite values: the median, and 1.4826 · MAD, or — when more
+// than half the values are equal and MAD = 0 — 1.253314 · mean absolute deviation from the
+// median. `spread` is 0 only when all values are equal; both are NaN for no values.
+struct RobustSpread {
   double median;
-  double scaled_mad;
+  double spread;
+  bool from_mean_deviation;  // the MAD = 0 fallback was used
 };
-Spread median_and_scaled_mad(std::vector<double> values);
+RobustSpread robust_spread(std::vector<double> values);
 
 }  // namespace envsift

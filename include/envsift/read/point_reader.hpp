@@ -23,6 +23,7 @@ struct ReaderOptions {
   char delimiter = 0;          // 0: '\t' for .tsv/.tab, else sniffed from the header line
   bool require_taxon = false;  // screening needs a taxon column; sampling does not
   std::string vector_layer;    // layer of a multi-layer vector source; empty = the first
+  bool coordinates_optional = false;  // screening pre-sampled values: coordinates are not needed
 };
 
 // Reads every record; none is dropped. Records with unusable coordinates carry reason codes in

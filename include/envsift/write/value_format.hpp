@@ -9,6 +9,9 @@ namespace envsift {
 // reads back to that 32-bit float (what GDAL's tools show), not its 17-digit double expansion.
 std::string format_value(double value, bool as_float32 = false);
 
+// Test statistics and cutoffs: six significant digits (NaN → empty).
+std::string format_statistic(double value);
+
 // Scores with three decimals.
 std::string format_score(double score);
 

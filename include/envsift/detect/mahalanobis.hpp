@@ -1,0 +1,54 @@
+// Mahalanobis distance of each record from its taxon's centre, with a chi-square cutoff.
+// `Mahalanobis` uses the classical mean and covariance; `RobustMahalanobis` (robust_mahalanobis.hpp)
+// the reweighted FAST-MCD estimates. Both work in the same reduced space (see the .cpp).
+#pragma once
+#include <cstddef>
+#include <cstdint>
+
+#include <Eigen/Core>
+
+#include "envsift/detect/detector.hpp"
+
+namespace envsift {
+
+struct MahalanobisOptions {
+  double quantile = 0.975;             // cutoff χ²_{k, quantile}, k = dimensions used
+  std::size_t min_records = 10;        // fewer complete reference rows: not judged
+  std::size_t rows_per_dimension = 3;  // at most ⌊rows / 3⌋ dimensions are used
+  double eigen_floor = 1e-6;           // components with eigenvalue < floor · largest are dropped
+};
+
+struct Estimate {
+  Eigen::VectorXd center;
+  Eigen::MatrixXd scatter;
+};
+
+class Mahalanobis : public Detector {
+ public:
+  explicit Mahalanobis(MahalanobisOptions options = {}) : options_(options) {}
+  std::string name() const override { return "mahalanobis"; }
+  std::vector<std::string> extra_columns() const override { return {"dims"}; }
+  std::vector<Finding> judge(const TaxonValues& taxon) const final;
+
+ protected:
+  // Location and scatter of the reference scores (rows × dimensions).
+  virtual Estimate estimate(const Eigen::MatrixXd& scores, std::uint64_t seed) const;
+  const MahalanobisOptions& options() const { return options_; }
+
+ private:
+  MahalanobisOptions options_;
+};
+
+// The space the distances are measured in: layers with spread, standardised, projected on the
+// leading principal components of their correlation matrix.
+struct ReducedSpace {
+  std::vector<std::size_t> layers;  // layers used (those with non-zero spread)
+  Eigen::VectorXd mean, scale;      // per used layer
+  Eigen::MatrixXd basis;            // used layers × k, orthonormal columns
+  std::size_t dimensions() const { return static_cast<std::size_t>(basis.cols()); }
+};
+// `complete`: reference rows with every layer finite. Returns a space with 0 dimensions when
+// nothing is left.
+ReducedSpace reduce(const Eigen::MatrixXd& complete, const MahalanobisOptions& options);
+
+}  // namespace envsift

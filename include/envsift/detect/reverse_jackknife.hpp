@@ -1,0 +1,36 @@
+// Reverse jackknife per layer: finds a gap that cuts a tail off a taxon's values.
+#pragma once
+#include <cstddef>
+
+#include "envsift/detect/detector.hpp"
+
+namespace envsift {
+
+struct ReverseJackknifeOptions {
+  std::size_t min_records = 10;  // fewer reference values on a layer: that layer is not judged
+};
+
+class ReverseJackknife : public Detector {
+ public:
+  explicit ReverseJackknife(ReverseJackknifeOptions options = {}) : options_(options) {}
+  std::string name() const override { return "reverse_jackknife"; }
+  std::vector<Finding> judge(const TaxonValues& taxon) const override;
+
+ private:
+  ReverseJackknifeOptions options_;
+};
+
+// One layer's test, exposed for tests: for each value of `values`, the largest standardised gap
+// that separates it into a tail (0 when none does) and the threshold t.
+struct JackknifeLayer {
+  std::vector<double> sorted;   // reference values, ascending
+  std::vector<double> gap;      // standardised y_i per sorted value
+  std::vector<std::size_t> best_in_tail;  // index of the largest gap from i outwards to its tail's end
+  double mean = 0, threshold = 0;
+  bool usable = false;          // false when every value is equal (no gap is possible)
+  // Largest standardised gap cutting off x's tail and the sorted index of that gap's value.
+  std::pair<double, std::size_t> statistic(double x) const;
+};
+JackknifeLayer reverse_jackknife_layer(std::vector<double> reference);
+
+}  // namespace envsift

@@ -1,0 +1,22 @@
+// Robust Mahalanobis distance: the same test as mahalanobis.hpp with the taxon's centre and
+// scatter estimated by reweighted FAST-MCD (fast_mcd.hpp), so that the outliers themselves
+// cannot pull the centre towards them or inflate the scatter (masking).
+#pragma once
+#include "envsift/detect/fast_mcd.hpp"
+#include "envsift/detect/mahalanobis.hpp"
+
+namespace envsift {
+
+class RobustMahalanobis : public Mahalanobis {
+ public:
+  RobustMahalanobis(MahalanobisOptions options = {}, McdOptions mcd = {}) : Mahalanobis(options), mcd_(mcd) {}
+  std::string name() const override { return "mahalanobis_robust"; }
+
+ protected:
+  Estimate estimate(const Eigen::MatrixXd& scores, std::uint64_t seed) const override;
+
+ private:
+  McdOptions mcd_;
+};
+
+}  // namespace envsift

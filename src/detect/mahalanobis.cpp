@@ -1,0 +1,210 @@
+// Mahalanobis distance with a chi-square cutoff.
+// Sources: Mahalanobis, P.C. (1936) On the generalised distance in statistics. Proceedings of
+// the National Institute of Sciences of India 2:49-55; cutoff as in Rousseeuw, P.J. & van
+// Zomeren, B.C. (1990) Unmasking multivariate outliers and leverage points. Journal of the
+// American Statistical Association 85:633-639.
+//
+//   D²_i = (x_i − μ)ᵀ Σ⁻¹ (x_i − μ),   flagged when D²_i > χ²_{k, q}   (default q = 0.975)
+//
+// Climate layers are strongly collinear and many taxa have few records, so Σ is often singular
+// or nearly so. envsift measures D² in a reduced space (envsift's choice, documented in the
+// README): layers without spread are left out, the others standardised, and projected on the
+// leading principal components of their correlation matrix, keeping a component only when its
+// eigenvalue exceeds `eigen_floor` (1e-6) times the largest and keeping at most one component
+// per `rows_per_dimension` (3) reference rows. The dimension k actually used is reported per
+// record (`<test>_dims`) and is the χ² degrees of freedom. When every component is kept, D² is
+// exactly the classical D² of the raw values (D² is invariant under invertible linear maps).
+//
+// Which layers drive D²: with e the record's standardised deviation from the centre and
+// A = B Σ⁺ Bᵀ (B the component basis), D² = eᵀ A e = Σ_j e_j (A e)_j. A term can be negative
+// when correlation pulls the other way, so the reported share of layer j is its positive part
+// over the sum of the positive parts: max(0, e_j (A e)_j) / Σ_i max(0, e_i (A e)_i).
+//
+// The scatter is inverted over its directions of non-negligible variance only (pseudo-inverse,
+// same floor). A robust scatter is flat along a direction when more than half the reference rows
+// share one value there (an exact fit, e.g. a layer of a few classes); that direction is left
+// out and the reported dimension, which is also the χ² degrees of freedom, drops by one.
+#include "envsift/detect/mahalanobis.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <cstdio>
+
+#include <Eigen/Eigenvalues>
+
+#include "envsift/detect/chi_square.hpp"
+
+namespace envsift {
+
+ReducedSpace reduce(const Eigen::MatrixXd& complete, const MahalanobisOptions& o) {
+  ReducedSpace space;
+  const Eigen::Index m = complete.rows();
+  if (m < 2) return space;
+  const Eigen::VectorXd mean = complete.colwise().mean().transpose();
+  const Eigen::VectorXd sd =
+      ((complete.rowwise() - mean.transpose()).array().square().colwise().sum() / static_cast<double>(m - 1))
+          .sqrt()
+          .transpose();
+  for (Eigen::Index j = 0; j < complete.cols(); ++j)
+    if (sd[j] > 1e-12 * std::max(1.0, std::fabs(mean[j]))) space.layers.push_back(static_cast<std::size_t>(j));
+  const auto p = static_cast<Eigen::Index>(space.layers.size());
+  if (p == 0) return space;
+  space.mean.resize(p);
+  space.scale.resize(p);
+  Eigen::MatrixXd z(m, p);
+  for (Eigen::Index j = 0; j < p; ++j) {
+    const auto layer = static_cast<Eigen::Index>(space.layers[static_cast<std::size_t>(j)]);
+    space.mean[j] = mean[layer];
+    space.scale[j] = sd[layer];
+    z.col(j) = (complete.col(layer).array() - mean[layer]) / sd[layer];
+  }
+  const Eigen::MatrixXd correlation = (z.transpose() * z) / static_cast<double>(m - 1);
+  Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd> eig(correlation);
+  const Eigen::VectorXd& lambda = eig.eigenvalues();  // ascending
+  const double largest = lambda[p - 1];
+  Eigen::Index keep = 0;
+  while (keep < p && lambda[p - 1 - keep] > o.eigen_floor * largest) ++keep;
+  keep = std::min<Eigen::Index>(keep, m / static_cast<Eigen::Index>(o.rows_per_dimension));
+  space.basis.resize(p, keep);
+  for (Eigen::Index c = 0; c < keep; ++c) {
+    Eigen::VectorXd v = eig.eigenvectors().col(p - 1 - c);
+    Eigen::Index at;
+    v.cwiseAbs().maxCoeff(&at);
+    if (v[at] < 0) v = -v;  // a fixed sign, so results never depend on the solver's choice
+    space.basis.col(c) = v;
+  }
+  return space;
+}
+
+Estimate Mahalanobis::estimate(const Eigen::MatrixXd& scores, std::uint64_t) const {
+  Estimate e;
+  e.center = scores.colwise().mean().transpose();
+  const Eigen::MatrixXd centred = scores.rowwise() - e.center.transpose();
+  e.scatter = (centred.transpose() * centred) / static_cast<double>(scores.rows() - 1);
+  return e;
+}
+
+namespace {
+
+// The pseudo-inverse of the scatter over its directions with eigenvalue above floor · largest,
+// and how many there are. A robust scatter is flat along a direction when more than half the
+// reference rows share one value there (an "exact fit", e.g. a layer of few classes): that
+// direction has no scale to measure by and is left out, like a layer without spread.
+struct Precision {
+  Eigen::MatrixXd matrix;
+  std::size_t rank = 0;
+};
+Precision pseudo_inverse(const Eigen::MatrixXd& scatter, double floor) {
+  Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd> eig(scatter);
+  const double largest = eig.eigenvalues().maxCoeff();
+  Eigen::VectorXd inv = Eigen::VectorXd::Zero(eig.eigenvalues().size());
+  Precision p;
+  for (Eigen::Index i = 0; i < inv.size(); ++i)
+    if (largest > 0 && eig.eigenvalues()[i] > floor * largest) {
+      inv[i] = 1 / eig.eigenvalues()[i];
+      ++p.rank;
+    }
+  p.matrix = eig.eigenvectors() * inv.asDiagonal() * eig.eigenvectors().transpose();
+  return p;
+}
+
+std::string describe(const std::string& test, double d2, double cutoff, std::size_t k,
+                     std::vector<std::pair<double, std::string>> shares) {
+  std::stable_sort(shares.begin(), shares.end(), [](const auto& a, const auto& b) { return a.first > b.first; });
+  char buf[160];
+  std::snprintf(buf, sizeof buf, "%s D² %.1f > %.1f (%zu dim%s):", test == "mahalanobis" ? "Mahalanobis" : "robust Mahalanobis",
+                d2, cutoff, k, k == 1 ? "" : "s");
+  std::string s = buf;
+  std::size_t listed = 0;
+  for (const auto& [share, layer] : shares) {
+    if (listed == 4 || (listed > 0 && share < 0.05)) break;
+    std::snprintf(buf, sizeof buf, "%s %s %.0f%%", listed ? "," : "", layer.c_str(), 100 * share);
+    s += buf;
+    ++listed;
+  }
+  return s + " of D²";
+}
+
+}  // namespace
+
+std::vector<Finding> Mahalanobis::judge(const TaxonValues& taxon) const {
+  const auto rows = static_cast<std::size_t>(taxon.records.rows());
+  const Eigen::Index p = taxon.records.cols();
+  // Layers with enough reference values, then the reference rows complete on those layers.
+  std::vector<Eigen::Index> layers;
+  for (Eigen::Index j = 0; j < p; ++j)
+    if (static_cast<std::size_t>(taxon.reference.col(j).array().isFinite().count()) >= options_.min_records)
+      layers.push_back(j);
+  std::vector<Eigen::Index> complete_rows;
+  for (Eigen::Index r = 0; r < taxon.reference.rows(); ++r) {
+    bool ok = !layers.empty();
+    for (Eigen::Index j : layers) ok = ok && std::isfinite(taxon.reference(r, j));
+    if (ok) complete_rows.push_back(r);
+  }
+  const std::string too_few = "too_few_records:" + name();
+  if (complete_rows.size() < options_.min_records) return untested(rows, too_few);
+  Eigen::MatrixXd complete(static_cast<Eigen::Index>(complete_rows.size()), static_cast<Eigen::Index>(layers.size()));
+  for (std::size_t r = 0; r < complete_rows.size(); ++r)
+    for (std::size_t j = 0; j < layers.size(); ++j)
+      complete(static_cast<Eigen::Index>(r), static_cast<Eigen::Index>(j)) = taxon.reference(complete_rows[r], layers[j]);
+
+  const ReducedSpace space = reduce(complete, options_);
+  const std::size_t k = space.dimensions();
+  if (k == 0) return untested(rows, space.layers.empty() ? "no_spread:" + name() : too_few);
+  const auto used = static_cast<Eigen::Index>(space.layers.size());
+  auto standardise = [&](auto&& row) {
+    Eigen::VectorXd z(used);
+    for (Eigen::Index j = 0; j < used; ++j) {
+      const Eigen::Index layer = static_cast<Eigen::Index>(space.layers[static_cast<std::size_t>(j)]);
+      z[j] = (row(layer) - space.mean[j]) / space.scale[j];
+    }
+    return z;
+  };
+  Eigen::MatrixXd scores(complete.rows(), static_cast<Eigen::Index>(k));
+  for (Eigen::Index r = 0; r < complete.rows(); ++r)
+    scores.row(r) = (space.basis.transpose() * standardise([&](Eigen::Index l) { return complete(r, l); })).transpose();
+
+  const Estimate est = estimate(scores, taxon.seed);
+  const Precision precision = pseudo_inverse(est.scatter, options_.eigen_floor);
+  if (precision.rank == 0) return untested(rows, "no_spread:" + name());
+  const Eigen::MatrixXd layer_precision = space.basis * precision.matrix * space.basis.transpose();
+  const Eigen::VectorXd centre = space.basis * est.center;  // in standardised layer units
+  const std::size_t dims = precision.rank;
+  const double cutoff = chi_square_quantile(static_cast<double>(dims), options_.quantile);
+
+  std::vector<Finding> findings(rows);
+  for (std::size_t i = 0; i < rows; ++i) {
+    Finding& f = findings[i];
+    const auto row = static_cast<Eigen::Index>(i);
+    bool complete_record = true;
+    for (std::size_t j : space.layers)
+      complete_record = complete_record && std::isfinite(taxon.records(row, layers[j]));
+    if (!complete_record) {
+      f.untested_reason = "missing_value:" + name();
+      continue;
+    }
+    // Deviation from the centre within the reduced space, in standardised layer units.
+    const Eigen::VectorXd z = standardise([&](Eigen::Index l) { return taxon.records(row, layers[static_cast<std::size_t>(l)]); });
+    const Eigen::VectorXd e = space.basis * (space.basis.transpose() * z) - centre;
+    const Eigen::VectorXd ae = layer_precision * e;
+    const double d2 = std::max(0.0, e.dot(ae));
+    f.tested = true;
+    f.statistic = d2;
+    f.threshold = cutoff;
+    f.severity = std::sqrt(d2 / cutoff);  // a distance ratio, comparable with |z| / cutoff
+    f.flagged = d2 > cutoff;
+    f.extras = {static_cast<double>(dims)};
+    if (f.flagged) {
+      std::vector<std::pair<double, std::string>> shares;
+      double positive = 0;
+      for (Eigen::Index j = 0; j < used; ++j) positive += std::max(0.0, e[j] * ae[j]);
+      for (Eigen::Index j = 0; j < used; ++j)
+        shares.emplace_back(positive > 0 ? std::max(0.0, e[j] * ae[j]) / positive : 0.0,
+                            taxon.layer_names[static_cast<std::size_t>(layers[space.layers[static_cast<std::size_t>(j)]])]);
+      f.reasons.push_back(describe(name(), d2, cutoff, dims, std::move(shares)));
+    }
+  }
+  return findings;
+}
+
+}  // namespace envsift
