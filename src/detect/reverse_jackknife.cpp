@@ -112,7 +112,7 @@ std::vector<Finding> ReverseJackknife::judge(const TaxonValues& taxon) const {
         const bool low = x < j.mean;
         const double inner = low ? j.sorted[at + 1] : j.sorted[at - 1], outer = j.sorted[at];
         char buf[256];
-        std::snprintf(buf, sizeof buf, "%s %.6g is beyond a gap in the taxon's values (%.6g to %.6g; gap %.1f > %.1f)",
+        std::snprintf(buf, sizeof buf, "%s %.6g is beyond a gap in the taxon's values, from %.6g to %.6g (gap statistic %.1f > %.1f)",
                       taxon.layer_names[l].c_str(), x, low ? outer : inner, low ? inner : outer, stat, j.threshold);
         drivers[i].emplace_back(severity, buf);
       }

@@ -35,7 +35,9 @@ TEST(ValueColumns, SameVerdictsAsSamplingTheRasters) {
     EXPECT_EQ(ra.rows[i][ra.column("flags")], vb.rows[i][vb.column("flags")]) << "row " << i;
     const std::string sa = ra.rows[i][ra.column("score")], sb = vb.rows[i][vb.column("score")];
     ASSERT_EQ(sa.empty(), sb.empty()) << "row " << i;
-    if (!sa.empty()) EXPECT_NEAR(std::stod(sa), std::stod(sb), 1e-3 * std::max(1.0, std::stod(sa))) << "row " << i;
+    if (!sa.empty()) {
+      EXPECT_NEAR(std::stod(sa), std::stod(sb), 1e-3 * std::max(1.0, std::stod(sa))) << "row " << i;
+    }
   }
   // values mode adds no layer columns: the sampled file's columns (which hold the values and
   // one more, sample_status), then the same envsift columns
