@@ -7,6 +7,7 @@
 #include <string>
 #include <vector>
 
+#include <Eigen/Core>
 #include <gtest/gtest.h>
 
 #include "envsift/read/csv_reader.hpp"
@@ -73,6 +74,13 @@ inline Table read_csv(const std::string& path) {
   std::vector<std::string> row;
   while (reader.next(row, line)) t.rows.push_back(row);
   return t;
+}
+
+// One layer of values as a records × 1 matrix.
+inline Eigen::MatrixXd column(const std::vector<double>& v) {
+  Eigen::MatrixXd m(static_cast<Eigen::Index>(v.size()), 1);
+  for (std::size_t i = 0; i < v.size(); ++i) m(static_cast<Eigen::Index>(i), 0) = v[i];
+  return m;
 }
 
 }  // namespace envsift::testing

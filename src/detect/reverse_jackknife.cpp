@@ -75,61 +75,38 @@ std::pair<double, std::size_t> JackknifeLayer::statistic(double x) const {
   return {gap[best_in_tail[k]], best_in_tail[k]};
 }
 
-std::vector<Finding> ReverseJackknife::judge(const TaxonValues& taxon) const {
-  const auto rows = static_cast<std::size_t>(taxon.records.rows());
-  const auto layers = static_cast<std::size_t>(taxon.records.cols());
-  std::vector<Finding> findings(rows);
-  std::vector<std::vector<std::pair<double, std::string>>> drivers(rows);
-  std::string untested;
-  for (std::size_t l = 0; l < layers; ++l) {
-    std::vector<double> ref;
-    for (Eigen::Index r = 0; r < taxon.reference.rows(); ++r) {
-      const double v = taxon.reference(r, static_cast<Eigen::Index>(l));
-      if (std::isfinite(v)) ref.push_back(v);
+namespace {
+
+class JackknifeLayerJudge : public PerLayerTest::Layer {
+ public:
+  JackknifeLayerJudge(JackknifeLayer layer, std::string name) : j_(std::move(layer)), name_(std::move(name)) {}
+  LayerVerdict judge(double x) const override {
+    const auto [stat, at] = j_.statistic(x);
+    LayerVerdict v{stat, j_.threshold, ""};
+    if (stat > j_.threshold) {
+      const bool low = x < j_.mean;
+      const double inner = low ? j_.sorted[at + 1] : j_.sorted[at - 1], outer = j_.sorted[at];
+      char buf[256];
+      std::snprintf(buf, sizeof buf,
+                    "%s %.6g is beyond a gap in the taxon's values, from %.6g to %.6g (gap statistic %.1f > %.1f)",
+                    name_.c_str(), x, low ? outer : inner, low ? inner : outer, stat, j_.threshold);
+      v.reason = buf;
     }
-    if (ref.size() < options_.min_records) {
-      untested = "too_few_records:" + name();
-      continue;
-    }
-    const JackknifeLayer j = reverse_jackknife_layer(std::move(ref));
-    if (!j.usable) {
-      untested = "no_spread:" + taxon.layer_names[l];
-      continue;
-    }
-    for (std::size_t i = 0; i < rows; ++i) {
-      const double x = taxon.records(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(l));
-      if (!std::isfinite(x)) continue;
-      const auto [stat, at] = j.statistic(x);
-      Finding& f = findings[i];
-      const double severity = stat / j.threshold;
-      if (!f.tested || severity > f.severity) {
-        f.statistic = stat;
-        f.threshold = j.threshold;
-        f.severity = severity;
-      }
-      f.tested = true;
-      if (stat > j.threshold) {
-        const bool low = x < j.mean;
-        const double inner = low ? j.sorted[at + 1] : j.sorted[at - 1], outer = j.sorted[at];
-        char buf[256];
-        std::snprintf(buf, sizeof buf, "%s %.6g is beyond a gap in the taxon's values, from %.6g to %.6g (gap statistic %.1f > %.1f)",
-                      taxon.layer_names[l].c_str(), x, low ? outer : inner, low ? inner : outer, stat, j.threshold);
-        drivers[i].emplace_back(severity, buf);
-      }
-    }
+    return v;
   }
-  for (std::size_t i = 0; i < rows; ++i) {
-    Finding& f = findings[i];
-    if (!f.tested) {
-      f.untested_reason = untested.empty() ? "no_values" : untested;
-      continue;
-    }
-    f.flagged = f.statistic > f.threshold;
-    std::stable_sort(drivers[i].begin(), drivers[i].end(),
-                     [](const auto& a, const auto& b) { return a.first > b.first; });
-    for (auto& d : drivers[i]) f.reasons.push_back(std::move(d.second));
-  }
-  return findings;
+
+ private:
+  JackknifeLayer j_;
+  std::string name_;
+};
+
+}  // namespace
+
+std::unique_ptr<PerLayerTest::Layer> ReverseJackknife::prepare(std::vector<double> reference,
+                                                               const std::string& layer) const {
+  JackknifeLayer j = reverse_jackknife_layer(std::move(reference));
+  if (!j.usable) return nullptr;
+  return std::make_unique<JackknifeLayerJudge>(std::move(j), layer);
 }
 
 }  // namespace envsift

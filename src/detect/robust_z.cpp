@@ -62,52 +62,31 @@ RobustSpread robust_spread(std::vector<double> values) {
   return {median, kMeanAdToSd * mean_deviation, true};
 }
 
-std::vector<Finding> RobustZ::judge(const TaxonValues& taxon) const {
-  const auto rows = static_cast<std::size_t>(taxon.records.rows());
-  const auto layers = static_cast<std::size_t>(taxon.records.cols());
-  std::vector<Finding> findings(rows);
-  std::vector<std::vector<std::pair<double, std::string>>> drivers(rows);  // (|z|, words) per record
-  std::string untested;
-  for (std::size_t l = 0; l < layers; ++l) {
-    const auto column = taxon.reference.col(static_cast<Eigen::Index>(l));
-    std::vector<double> ref;
-    for (Eigen::Index r = 0; r < column.size(); ++r)
-      if (std::isfinite(column[r])) ref.push_back(column[r]);
-    const std::string& name = taxon.layer_names[l];
-    if (ref.size() < options_.min_records) {
-      untested = "too_few_records:" + this->name();
-      continue;
-    }
-    const RobustSpread s = robust_spread(std::move(ref));
-    if (!(s.spread > 0)) {
-      untested = "no_spread:" + name;
-      continue;
-    }
-    for (std::size_t i = 0; i < rows; ++i) {
-      const double x = taxon.records(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(l));
-      if (!std::isfinite(x)) continue;
-      const double z = (x - s.median) / s.spread;
-      Finding& f = findings[i];
-      if (!f.tested || std::fabs(z) > f.statistic) f.statistic = std::fabs(z);
-      f.tested = true;
-      if (std::fabs(z) > options_.cutoff) drivers[i].emplace_back(std::fabs(z), describe(name, x, z, s.median));
-    }
+namespace {
+
+class RobustZLayer : public PerLayerTest::Layer {
+ public:
+  RobustZLayer(RobustSpread spread, double cutoff, std::string name)
+      : spread_(spread), cutoff_(cutoff), name_(std::move(name)) {}
+  LayerVerdict judge(double x) const override {
+    const double z = (x - spread_.median) / spread_.spread;
+    LayerVerdict v{std::fabs(z), cutoff_, ""};
+    if (v.statistic > cutoff_) v.reason = describe(name_, x, z, spread_.median);
+    return v;
   }
-  for (std::size_t i = 0; i < rows; ++i) {
-    Finding& f = findings[i];
-    if (!f.tested) {
-      f.untested_reason = untested.empty() ? "no_values" : untested;
-      continue;
-    }
-    f.threshold = options_.cutoff;
-    f.severity = f.statistic / f.threshold;
-    f.flagged = f.statistic > f.threshold;
-    // the layer furthest out first; ties keep layer order
-    std::stable_sort(drivers[i].begin(), drivers[i].end(),
-                     [](const auto& a, const auto& b) { return a.first > b.first; });
-    for (auto& d : drivers[i]) f.reasons.push_back(std::move(d.second));
-  }
-  return findings;
+
+ private:
+  RobustSpread spread_;
+  double cutoff_;
+  std::string name_;
+};
+
+}  // namespace
+
+std::unique_ptr<PerLayerTest::Layer> RobustZ::prepare(std::vector<double> reference, const std::string& layer) const {
+  const RobustSpread s = robust_spread(std::move(reference));
+  if (!(s.spread > 0)) return nullptr;
+  return std::make_unique<RobustZLayer>(s, options_.cutoff, layer);
 }
 
 }  // namespace envsift

@@ -6,14 +6,12 @@
 
 #include <gtest/gtest.h>
 
+#include "../support.hpp"
+
 namespace envsift {
 namespace {
 
-Eigen::MatrixXd column(const std::vector<double>& v) {
-  Eigen::MatrixXd m(static_cast<Eigen::Index>(v.size()), 1);
-  for (std::size_t i = 0; i < v.size(); ++i) m(static_cast<Eigen::Index>(i), 0) = v[i];
-  return m;
-}
+using envsift::testing::column;
 
 const std::vector<std::string> kLayer{"x"};
 

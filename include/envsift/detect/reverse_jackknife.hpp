@@ -2,7 +2,7 @@
 #pragma once
 #include <cstddef>
 
-#include "envsift/detect/detector.hpp"
+#include "envsift/detect/per_layer_test.hpp"
 
 namespace envsift {
 
@@ -10,14 +10,13 @@ struct ReverseJackknifeOptions {
   std::size_t min_records = 10;  // fewer reference values on a layer: that layer is not judged
 };
 
-class ReverseJackknife : public Detector {
+class ReverseJackknife : public PerLayerTest {
  public:
-  explicit ReverseJackknife(ReverseJackknifeOptions options = {}) : options_(options) {}
+  explicit ReverseJackknife(ReverseJackknifeOptions options = {}) : PerLayerTest(options.min_records) {}
   std::string name() const override { return "reverse_jackknife"; }
-  std::vector<Finding> judge(const TaxonValues& taxon) const override;
 
- private:
-  ReverseJackknifeOptions options_;
+ protected:
+  std::unique_ptr<Layer> prepare(std::vector<double> reference, const std::string& layer) const override;
 };
 
 // One layer's test, exposed for tests: for each value of `values`, the largest standardised gap

@@ -3,7 +3,7 @@
 #include <cstddef>
 #include <vector>
 
-#include "envsift/detect/detector.hpp"
+#include "envsift/detect/per_layer_test.hpp"
 
 namespace envsift {
 
@@ -12,11 +12,13 @@ struct RobustZOptions {
   std::size_t min_records = 10;  // fewer reference values on a layer: that layer is not judged
 };
 
-class RobustZ : public Detector {
+class RobustZ : public PerLayerTest {
  public:
-  explicit RobustZ(RobustZOptions options = {}) : options_(options) {}
+  explicit RobustZ(RobustZOptions options = {}) : PerLayerTest(options.min_records), options_(options) {}
   std::string name() const override { return "robust_z"; }
-  std::vector<Finding> judge(const TaxonValues& taxon) const override;
+
+ protected:
+  std::unique_ptr<Layer> prepare(std::vector<double> reference, const std::string& layer) const override;
 
  private:
   RobustZOptions options_;

@@ -1,0 +1,42 @@
+// The shared frame of the one-layer tests (robust z, reverse jackknife): each layer is judged on
+// its own from the taxon's reference values; a record's finding is its most severe layer, and
+// its reasons list every layer beyond the cutoff, most severe first.
+#pragma once
+#include <cstddef>
+#include <memory>
+#include <string>
+#include <vector>
+
+#include "envsift/detect/detector.hpp"
+
+namespace envsift {
+
+struct LayerVerdict {
+  double statistic;
+  double threshold;  // flagged when statistic > threshold
+  std::string reason;  // plain words, filled only when flagged
+};
+
+class PerLayerTest : public Detector {
+ public:
+  std::vector<Finding> judge(const TaxonValues& taxon) const final;
+
+  // One layer's statistics, ready to judge values.
+  class Layer {
+   public:
+    virtual ~Layer() = default;
+    virtual LayerVerdict judge(double x) const = 0;
+  };
+
+ protected:
+  explicit PerLayerTest(std::size_t min_records) : min_records_(min_records) {}
+
+  // From the layer's finite reference values (at least min_records of them); nullptr when the
+  // values have no spread to judge by.
+  virtual std::unique_ptr<Layer> prepare(std::vector<double> reference, const std::string& layer) const = 0;
+
+ private:
+  std::size_t min_records_;
+};
+
+}  // namespace envsift

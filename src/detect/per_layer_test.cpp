@@ -1,0 +1,55 @@
+#include "envsift/detect/per_layer_test.hpp"
+
+#include <algorithm>
+#include <cmath>
+
+namespace envsift {
+
+std::vector<Finding> PerLayerTest::judge(const TaxonValues& taxon) const {
+  const auto rows = static_cast<std::size_t>(taxon.records.rows());
+  std::vector<Finding> findings(rows);
+  std::vector<std::vector<std::pair<double, std::string>>> drivers(rows);  // (severity, words) per record
+  std::string untested;
+  for (Eigen::Index l = 0; l < taxon.records.cols(); ++l) {
+    const std::string& name = taxon.layer_names[static_cast<std::size_t>(l)];
+    std::vector<double> reference;
+    for (Eigen::Index r = 0; r < taxon.reference.rows(); ++r)
+      if (std::isfinite(taxon.reference(r, l))) reference.push_back(taxon.reference(r, l));
+    if (reference.size() < min_records_) {
+      untested = "too_few_records:" + this->name();
+      continue;
+    }
+    const auto layer = prepare(std::move(reference), name);
+    if (!layer) {
+      untested = "no_spread:" + name;
+      continue;
+    }
+    for (std::size_t i = 0; i < rows; ++i) {
+      const double x = taxon.records(static_cast<Eigen::Index>(i), l);
+      if (!std::isfinite(x)) continue;
+      LayerVerdict v = layer->judge(x);
+      const double severity = v.statistic / v.threshold;
+      Finding& f = findings[i];
+      if (!f.tested || severity > f.severity) {
+        f.statistic = v.statistic;
+        f.threshold = v.threshold;
+        f.severity = severity;
+      }
+      f.tested = true;
+      if (v.statistic > v.threshold) {
+        f.flagged = true;
+        drivers[i].emplace_back(severity, std::move(v.reason));
+      }
+    }
+  }
+  for (std::size_t i = 0; i < rows; ++i) {
+    Finding& f = findings[i];
+    if (!f.tested) f.untested_reason = untested.empty() ? "no_values" : untested;
+    std::stable_sort(drivers[i].begin(), drivers[i].end(),
+                     [](const auto& a, const auto& b) { return a.first > b.first; });  // ties: layer order
+    for (auto& d : drivers[i]) f.reasons.push_back(std::move(d.second));
+  }
+  return findings;
+}
+
+}  // namespace envsift
