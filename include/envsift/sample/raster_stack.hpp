@@ -54,6 +54,14 @@ struct Samples {
   CellStatus status_at(std::size_t record, std::size_t layer) const { return status[record * layer_count + layer]; }
 };
 
+// Values inside each record's uncertainty disc: every cell whose centre lies within the radius
+// (great-circle distance on the sphere of radius 6 371 008.8 m), plus the cell containing the
+// point itself, so a disc smaller than a cell still holds the point's value. NaN where a record
+// has no disc or no valid cell in it.
+struct DiscSamples {
+  Eigen::MatrixXd min, mean, max;  // records × layers
+};
+
 class RasterStack {
  public:
   // Opens and checks every layer. Throws InputError for a file that is not a readable raster,
@@ -71,6 +79,10 @@ class RasterStack {
   // raster or nodata, the value falls back to the containing cell (nearest).
   Samples sample(const std::vector<double>& longitude, const std::vector<double>& latitude,
                  Interpolation method);
+
+  // `radius_m[i]` ≤ 0 or NaN: no disc for record i. Parallel, thread-count independent.
+  DiscSamples sample_discs(const std::vector<double>& longitude, const std::vector<double>& latitude,
+                           const std::vector<double>& radius_m);
 
   const BlockCache& cache() const { return cache_; }
 
