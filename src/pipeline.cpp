@@ -1,7 +1,7 @@
 #include "envsift/pipeline.hpp"
 
 #include <algorithm>
-#include <cstring>
+#include <cmath>
 #include <memory>
 #include <numeric>
 
@@ -9,14 +9,21 @@
 #include "envsift/detect/robust_mahalanobis.hpp"
 #include "envsift/detect/robust_z.hpp"
 #include "envsift/errors.hpp"
-#include "envsift/read/coordinates.hpp"
 #include "envsift/reason_codes.hpp"
+#include "envsift/score/scoring.hpp"
 #include "envsift/score/screen_taxa.hpp"
 #include "envsift/write/csv_writer.hpp"
+#include "envsift/write/taxon_summary.hpp"
 #include "envsift/write/value_format.hpp"
+#include "gather_values.hpp"
 
 namespace envsift {
 namespace {
+
+using detail::add_code;
+using detail::Gathered;
+
+const std::string kElevationCheck = "elevation_mismatch";
 
 std::string join(const std::vector<std::string>& parts, const char* separator) {
   std::string s;
@@ -24,134 +31,45 @@ std::string join(const std::vector<std::string>& parts, const char* separator) {
   return s;
 }
 
-void add_code(std::vector<std::string>& codes, const std::string& code) {
-  if (std::find(codes.begin(), codes.end(), code) == codes.end()) codes.push_back(code);
-}
-
-// Records and the values to judge them on, from rasters or from the input's own columns.
-struct Valued {
-  PointTable table;
-  std::vector<std::string> layer_names;
-  std::vector<bool> float32;       // per layer: print as 32-bit float
-  bool layers_are_columns = false; // values came from input columns: no layer columns are added
-  Eigen::MatrixXd values;
-  std::vector<std::uint64_t> cells;
-  std::vector<std::vector<std::string>> status;  // reason codes per record
-};
-
-void check_unique_columns(const std::vector<std::string>& columns) {
-  for (std::size_t i = 0; i < columns.size(); ++i)
-    for (std::size_t j = 0; j < i; ++j)
-      if (columns[i] == columns[j])
-        throw UsageError("the output would have two columns named '" + columns[i] +
-                         "' (an input column, a layer or an envsift column); rename the input column, or "
-                         "name the layer with NAME=PATH");
-}
-
-Valued sample_rasters(const SampleOptions& o, const std::vector<std::string>& added_columns) {
-  Valued s;
-  auto specs = expand_layer_arguments(o.layers);
-  s.table = read_points(o.points, o.reader);
-  std::vector<std::string> columns = s.table.columns;
-  for (const auto& spec : specs) columns.push_back(spec.name);
-  columns.insert(columns.end(), added_columns.begin(), added_columns.end());
-  check_unique_columns(columns);
-
-  RasterStack stack(specs, o.cache_megabytes << 20);
-  const std::size_t n = s.table.records.size();
-  std::vector<double> lon(n), lat(n);
-  for (std::size_t i = 0; i < n; ++i) {
-    lon[i] = s.table.records[i].longitude;
-    lat[i] = s.table.records[i].latitude;
-  }
-  Samples samples = stack.sample(lon, lat, o.method);
-  s.values = std::move(samples.values);
-  s.cells = std::move(samples.cell);
-  for (const auto& l : stack.layers()) {
-    s.layer_names.push_back(l.spec.name);
-    s.float32.push_back(o.method == Interpolation::nearest && l.float32_values);
-  }
-  s.status.resize(n);
-  for (std::size_t i = 0; i < n; ++i) {
-    s.status[i] = s.table.records[i].problems;
-    for (std::size_t l = 0; l < s.layer_names.size(); ++l) {
-      const CellStatus c = samples.status_at(i, l);
-      if (c == CellStatus::outside) s.status[i].push_back(reason::on_layer(reason::outside_layer, s.layer_names[l]));
-      if (c == CellStatus::nodata) s.status[i].push_back(reason::on_layer(reason::nodata, s.layer_names[l]));
-    }
-  }
-  return s;
-}
-
-// Pre-sampled values: the named input columns are the layers.
-Valued read_value_columns(const ScreenOptions& o, const std::vector<std::string>& added_columns) {
-  Valued s;
-  ReaderOptions reader = o.reader;
-  reader.coordinates_optional = true;
-  s.table = read_points(o.points, reader);
-  s.layers_are_columns = true;
-  std::vector<std::string> columns = s.table.columns;
-  columns.insert(columns.end(), added_columns.begin(), added_columns.end());
-  check_unique_columns(columns);
-  std::vector<std::size_t> index;
-  for (const auto& name : o.value_columns) {
-    auto it = std::find(s.table.columns.begin(), s.table.columns.end(), name);
-    if (it == s.table.columns.end())
-      throw InputError(o.points, 1, "no value column '" + name + "'", "check the names given to --value-columns");
-    index.push_back(static_cast<std::size_t>(it - s.table.columns.begin()));
-    s.layer_names.push_back(name);
-    s.float32.push_back(false);
-  }
-  const std::size_t n = s.table.records.size();
-  s.values = Eigen::MatrixXd::Constant(static_cast<Eigen::Index>(n), static_cast<Eigen::Index>(index.size()), std::nan(""));
-  s.cells.assign(n, 0);
-  s.status.resize(n);
-  for (std::size_t i = 0; i < n; ++i) {
-    const Occurrence& r = s.table.records[i];
-    for (const auto& p : r.problems)
-      if (p == reason::ragged_row || p == reason::uncertainty_not_numeric) s.status[i].push_back(p);
-    std::uint64_t key = 0xcbf29ce484222325ull;
-    for (std::size_t l = 0; l < index.size(); ++l) {
-      const ParsedNumber v = parse_number(r.fields[index[l]]);
-      if (v.problem.empty()) {
-        s.values(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(l)) = v.value;
-        std::uint64_t bits;
-        std::memcpy(&bits, &v.value, sizeof bits);
-        key = (key ^ bits) * 0x100000001b3ull;
-      } else {
-        s.status[i].push_back(reason::on_layer(v.problem == "empty" ? reason::value_missing : reason::value_not_numeric,
-                                               s.layer_names[l]));
-        key = (key ^ 0x9E3779B97F4A7C15ull) * 0x100000001b3ull;
-      }
-    }
-    s.cells[i] = key;
-  }
-  return s;
-}
-
 bool has_any_value(const Eigen::MatrixXd& values, std::size_t record) {
   return values.row(static_cast<Eigen::Index>(record)).array().isFinite().any();
 }
 
-std::vector<std::string> output_header(const Valued& s, const std::vector<std::string>& added) {
-  std::vector<std::string> h = s.table.columns;
-  if (!s.layers_are_columns) h.insert(h.end(), s.layer_names.begin(), s.layer_names.end());
+std::vector<std::string> output_header(const Gathered& g, const std::vector<std::string>& added) {
+  std::vector<std::string> h = g.table.columns;
+  if (!g.layers_are_columns)
+    for (const auto& name : g.layer_names) {
+      h.push_back(name);
+      if (g.has_discs)
+        for (const char* s : {"_min", "_mean", "_max"}) h.push_back(name + s);
+    }
   h.insert(h.end(), added.begin(), added.end());
   return h;
 }
 
-// Original fields, then (when sampled) one value per layer, then the status.
-std::vector<std::string> output_row(const Valued& s, std::size_t i) {
-  std::vector<std::string> row = s.table.records[i].fields;
-  if (!s.layers_are_columns)
-    for (std::size_t l = 0; l < s.layer_names.size(); ++l)
-      row.push_back(format_value(s.values(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(l)), s.float32[l]));
-  row.push_back(s.status[i].empty() ? reason::ok : join(s.status[i], ";"));
+// Original fields, then (when sampled) each layer's value and disc, then the status.
+std::vector<std::string> output_row(const Gathered& g, std::size_t i) {
+  std::vector<std::string> row = g.table.records[i].fields;
+  const auto r = static_cast<Eigen::Index>(i);
+  if (!g.layers_are_columns)
+    for (std::size_t l = 0; l < g.layer_names.size(); ++l) {
+      const auto c = static_cast<Eigen::Index>(l);
+      row.push_back(format_value(g.values(r, c), g.float32[l]));
+      if (g.has_discs) {
+        row.push_back(format_value(g.discs.min(r, c), g.float32[l]));
+        row.push_back(format_statistic(g.discs.mean(r, c)));
+        row.push_back(format_value(g.discs.max(r, c), g.float32[l]));
+      }
+    }
+  row.push_back(g.status[i].empty() ? reason::ok : join(g.status[i], ";"));
   return row;
 }
 
 std::vector<std::unique_ptr<Detector>> make_detectors(const ScreenOptions& o) {
   std::vector<std::unique_ptr<Detector>> detectors;
+  for (const auto& name : o.tests)
+    if (std::find(all_test_names().begin(), all_test_names().end(), name) == all_test_names().end())
+      throw UsageError("unknown test '" + name + "'; choose from " + join(all_test_names(), ", "));
   for (const auto& name : all_test_names()) {
     if (std::find(o.tests.begin(), o.tests.end(), name) == o.tests.end()) continue;
     if (name == "robust_z") detectors.push_back(std::make_unique<RobustZ>(o.robust_z));
@@ -159,11 +77,21 @@ std::vector<std::unique_ptr<Detector>> make_detectors(const ScreenOptions& o) {
     if (name == "mahalanobis") detectors.push_back(std::make_unique<Mahalanobis>(o.mahalanobis));
     if (name == "mahalanobis_robust") detectors.push_back(std::make_unique<RobustMahalanobis>(o.mahalanobis, o.mcd));
   }
-  for (const auto& name : o.tests)
-    if (std::find(all_test_names().begin(), all_test_names().end(), name) == all_test_names().end())
-      throw UsageError("unknown test '" + name + "'; choose from " + join(all_test_names(), ", "));
   if (detectors.empty()) throw UsageError("no test chosen; choose from " + join(all_test_names(), ", "));
   return detectors;
+}
+
+// The DEM's range around each record: its disc, or its point value.
+std::vector<DemRange> dem_ranges(const Gathered& g, std::size_t dem) {
+  std::vector<DemRange> out(g.table.records.size());
+  for (std::size_t i = 0; i < out.size(); ++i) {
+    const auto r = static_cast<Eigen::Index>(i), c = static_cast<Eigen::Index>(dem);
+    const double point = g.values(r, c);
+    out[i] = {point, point, 0.0};
+    if (g.has_discs && g.radius_m[i] > 0 && std::isfinite(g.discs.min(r, c)))
+      out[i] = {std::min(point, g.discs.min(r, c)), std::max(point, g.discs.max(r, c)), g.radius_m[i]};
+  }
+  return out;
 }
 
 }  // namespace
@@ -186,15 +114,15 @@ std::string RunSummary::line() const {
 
 RunSummary run_sample(const SampleOptions& o) {
   const std::vector<std::string> added{"status"};
-  const Valued s = sample_rasters(o, added);
+  const Gathered g = detail::sample_rasters(o, added);
   CsvWriter out(o.out);
-  out.row(output_header(s, added));
+  out.row(output_header(g, added));
   RunSummary summary;
-  for (std::size_t i = 0; i < s.table.records.size(); ++i) {
-    out.row(output_row(s, i));
+  for (std::size_t i = 0; i < g.table.records.size(); ++i) {
+    out.row(output_row(g, i));
     ++summary.read;
-    if (has_any_value(s.values, i)) ++summary.scored;  // for `sample`, a record is done once it has values
-    else ++summary.not_scored[s.status[i].empty() ? reason::no_values : s.status[i].front()];
+    if (has_any_value(g.values, i)) ++summary.scored;  // for `sample`, a record is done once it has values
+    else ++summary.not_scored[g.status[i].empty() ? reason::no_values : g.status[i].front()];
   }
   out.commit();
   return summary;
@@ -202,27 +130,58 @@ RunSummary run_sample(const SampleOptions& o) {
 
 RunSummary run_screen(const ScreenOptions& o) {
   const auto detectors = make_detectors(o);
+  std::vector<std::string> names;
+  for (const auto& d : detectors) names.push_back(d->name());
+  const bool check_elevation = !o.elevation.dem_layer.empty();
   std::vector<std::string> added{"status", "rank", "score", "flags", "reasons"};
   for (const auto& d : detectors) {
     added.push_back(d->name() + "_stat");
     added.push_back(d->name() + "_cutoff");
     for (const auto& extra : d->extra_columns()) added.push_back(d->name() + "_" + extra);
   }
-  Valued s = o.value_columns.empty() ? sample_rasters(o, added) : read_value_columns(o, added);
-  const std::size_t n = s.table.records.size();
+  if (check_elevation)
+    for (const char* c : {"_stat", "_cutoff"}) added.push_back(kElevationCheck + c);
+  if (check_elevation && !o.value_columns.empty())
+    throw UsageError("--dem needs --layers: the elevation check compares with a sampled DEM");
+  Gathered g = o.value_columns.empty() ? detail::sample_rasters(o, added) : detail::read_value_columns(o, added);
+  const std::size_t n = g.table.records.size();
 
   std::vector<std::string> taxa(n);
   std::vector<bool> eligible(n);
   for (std::size_t i = 0; i < n; ++i) {
-    taxa[i] = o.single_taxon ? std::string("*") : s.table.records[i].taxon;
-    if (taxa[i].empty() && s.table.records[i].has_coordinates()) s.status[i].push_back(reason::taxon_missing);
-    eligible[i] = !taxa[i].empty() && has_any_value(s.values, i);
+    taxa[i] = o.single_taxon ? std::string("*") : g.table.records[i].taxon;
+    if (taxa[i].empty() && g.table.records[i].has_coordinates()) g.status[i].push_back(reason::taxon_missing);
+    eligible[i] = !taxa[i].empty() && has_any_value(g.values, i);
   }
-  const ScreeningResult screened =
-      screen_taxa({s.values, s.cells, taxa, eligible, s.layer_names}, detectors, o.distinct_cells, o.seed);
+  ScreeningInput input{g.values, g.cells, taxa, eligible, g.layer_names};
+  if (g.has_discs) input.lower = &g.discs.min, input.upper = &g.discs.max;
+  ScreeningResult screened = screen_taxa(input, detectors, o.distinct_cells, o.seed);
 
+  // The reported elevation is checked for every record with coordinates, taxon or not.
+  std::vector<Finding> elevation(n);
+  std::vector<DemRange> dem;
+  if (check_elevation) {
+    const auto it = std::find(g.layer_names.begin(), g.layer_names.end(), o.elevation.dem_layer);
+    if (it == g.layer_names.end())
+      throw UsageError("--dem " + o.elevation.dem_layer + " is not one of the layers (" + join(g.layer_names, ", ") + ")");
+    dem = dem_ranges(g, static_cast<std::size_t>(it - g.layer_names.begin()));
+    const auto reported = detail::reported_elevations(g, o.reader.columns);
+    for (std::size_t i = 0; i < n; ++i)
+      elevation[i] = check_reported_elevation(reported[i], dem[i], o.elevation.tolerance_m, o.elevation.dem_layer);
+  }
+
+  std::vector<std::string> verdict_names = names;
+  if (check_elevation) verdict_names.push_back(kElevationCheck);
+  std::vector<Verdict> verdicts(n);
   std::vector<std::optional<double>> scores(n);
-  for (std::size_t i = 0; i < n; ++i) scores[i] = screened.verdicts[i].score;
+  for (std::size_t i = 0; i < n; ++i) {
+    std::vector<const Finding*> per_test;
+    for (const auto& f : screened.findings) per_test.push_back(&f[i]);
+    if (check_elevation) per_test.push_back(&elevation[i]);
+    verdicts[i] = combine(per_test, verdict_names);
+    for (const auto& note : g.notes[i]) verdicts[i].reasons.push_back(note);
+    scores[i] = verdicts[i].score;
+  }
   const auto rank = rank_by_score(scores);
   std::vector<std::size_t> rows(n);
   std::iota(rows.begin(), rows.end(), 0);
@@ -233,20 +192,20 @@ RunSummary run_screen(const ScreenOptions& o) {
 
   RunSummary summary;
   CsvWriter out(o.out);
-  out.row(output_header(s, added));
+  out.row(output_header(g, added));
   for (std::size_t i : rows) {
-    const Verdict& v = screened.verdicts[i];
-    if (eligible[i])
-      for (const auto& u : v.untested) add_code(s.status[i], u);
+    const Verdict& v = verdicts[i];
+    for (const auto& u : v.untested)
+      if (eligible[i] && !u.empty()) add_code(g.status[i], u);
     ++summary.read;
     if (v.score) {
       ++summary.scored;
       if (!v.flags.empty()) ++summary.flagged;
     } else {
-      if (s.status[i].empty()) s.status[i].push_back(reason::no_values);
-      ++summary.not_scored[s.status[i].front()];
+      if (g.status[i].empty()) g.status[i].push_back(reason::no_values);
+      ++summary.not_scored[g.status[i].front()];
     }
-    auto row = output_row(s, i);
+    auto row = output_row(g, i);
     row.push_back(rank[i] ? std::to_string(rank[i]) : "");
     row.push_back(v.score ? format_score(*v.score) : "");
     row.push_back(join(v.flags, ";"));
@@ -258,7 +217,26 @@ RunSummary run_screen(const ScreenOptions& o) {
       for (std::size_t e = 0; e < detectors[t]->extra_columns().size(); ++e)
         row.push_back(f.tested && e < f.extras.size() ? format_statistic(f.extras[e]) : "");
     }
+    if (check_elevation) {
+      row.push_back(elevation[i].tested ? format_statistic(elevation[i].statistic) : "");
+      row.push_back(elevation[i].tested ? format_statistic(elevation[i].threshold) : "");
+    }
     out.row(row);
+  }
+
+  if (!o.summary.empty()) {
+    ElevationBand band;
+    if (check_elevation) {
+      const auto c = static_cast<Eigen::Index>(std::find(g.layer_names.begin(), g.layer_names.end(), o.elevation.dem_layer) -
+                                               g.layer_names.begin());
+      for (std::size_t i = 0; i < n; ++i) {
+        band.dem_low.push_back(dem[i].low);
+        band.dem_high.push_back(dem[i].high);
+        band.dem_point.push_back(g.values(static_cast<Eigen::Index>(i), c));
+      }
+      band.z_cutoff = o.robust_z.cutoff;
+    }
+    write_taxon_summary(o.summary, screened, verdicts, verdict_names, check_elevation ? &band : nullptr);
   }
   out.commit();
   return summary;

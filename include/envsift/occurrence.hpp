@@ -26,6 +26,7 @@ struct PointTable {
   std::string source;                // path it was read from
   std::vector<std::string> columns;  // original column names, in order
   std::vector<Occurrence> records;   // in input order
+  std::optional<std::size_t> uncertainty_column;  // index in `columns`, when the file has one
 };
 
 }  // namespace envsift

@@ -10,11 +10,20 @@
 #include "envsift/detect/fast_mcd.hpp"
 #include "envsift/detect/mahalanobis.hpp"
 #include "envsift/detect/reverse_jackknife.hpp"
+#include "envsift/detect/reported_elevation.hpp"
 #include "envsift/detect/robust_z.hpp"
 #include "envsift/read/point_reader.hpp"
 #include "envsift/sample/raster_stack.hpp"
 
 namespace envsift {
+
+// Uncertainty discs: a record with coordinateUncertaintyInMeters (or the default) is also
+// sampled over every cell within that radius.
+struct DiscOptions {
+  bool enabled = true;
+  double default_radius_m = 0;     // for records without an uncertainty; 0 = none
+  double max_radius_m = 25000;     // larger discs are cut to this (cost grows with the area)
+};
 
 struct SampleOptions {
   std::string points;
@@ -23,6 +32,13 @@ struct SampleOptions {
   Interpolation method = Interpolation::nearest;
   std::string out;
   std::size_t cache_megabytes = 256;
+  DiscOptions discs;
+};
+
+// The label's elevation against the DEM.
+struct ElevationOptions {
+  std::string dem_layer;        // empty: no check
+  double tolerance_m = 100;
 };
 
 enum class RowOrder { input, rank };
@@ -41,6 +57,8 @@ struct ScreenOptions : SampleOptions {
   std::vector<std::string> value_columns;  // screen these input columns instead of sampling layers
   bool single_taxon = false;               // one group for the whole file
   RowOrder order = RowOrder::input;
+  ElevationOptions elevation;
+  std::string summary;                     // per-taxon summary CSV; empty = none
 };
 
 // Where the records went: every record read is counted once as scored or as not scorable.

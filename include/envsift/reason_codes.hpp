@@ -15,6 +15,9 @@ inline const std::string coord_out_of_range = "coord_out_of_range";  // |lat| > 
 inline const std::string ragged_row = "ragged_row";                  // field count differs from header
 inline const std::string uncertainty_not_numeric = "uncertainty_not_numeric";
 inline const std::string taxon_missing = "taxon_missing";            // empty taxon name (screen only)
+inline const std::string uncertainty_capped = "uncertainty_capped";  // disc cut to --max-uncertainty
+// (suffix ":<column>") a reported elevation that is not one number with a known unit
+inline const std::string elevation_unreadable = "elevation_unreadable";
 // Sampling (suffix ":<layer>")
 inline const std::string outside_layer = "outside_layer";  // point falls outside the raster's extent
 inline const std::string nodata = "nodata";                // the cell holds the layer's nodata value

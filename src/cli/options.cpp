@@ -28,11 +28,18 @@ void add_sampling_options(po::options_description& d, SampleOptions& o, bool lay
     ("latitude-column", po::value(&c.latitude)->default_value(c.latitude)->value_name("NAME"),
      "latitude column, decimal degrees WGS 84")
     ("uncertainty-column", po::value(&c.uncertainty)->default_value(c.uncertainty)->value_name("NAME"),
-     "coordinate uncertainty column, metres")
+     "coordinate uncertainty column, metres: each layer is also sampled over every cell within that radius "
+     "(columns LAYER_min, LAYER_mean, LAYER_max)")
     ("delimiter", po::value<std::string>()->value_name("CHAR"),
      "field delimiter of a text points file: ',' ';' 'tab' (default: tab for .tsv, else guessed from the header)")
     ("points-layer", po::value(&o.reader.vector_layer)->value_name("NAME"),
      "layer of a multi-layer GeoPackage (default: the first)")
+    ("default-uncertainty", po::value(&o.discs.default_radius_m)->default_value(o.discs.default_radius_m)->value_name("M"),
+     "uncertainty radius in metres for records that give none (0: sample only their point)")
+    ("max-uncertainty", po::value(&o.discs.max_radius_m)->default_value(o.discs.max_radius_m)->value_name("M"),
+     "larger uncertainty discs are cut to M metres (cost grows with the disc's area); such records say so "
+     "(uncertainty_capped)")
+    ("no-discs", po::bool_switch(), "ignore coordinate uncertainty: sample and judge each record at its point only")
     ("threads", po::value<int>()->value_name("N"), "threads to use (default: all cores); results do not depend on it")
     ("block-cache-mb", po::value(&o.cache_megabytes)->default_value(o.cache_megabytes)->value_name("MB"),
      "memory for decoded raster blocks")
@@ -68,6 +75,9 @@ void finish_sampling_options(const po::variables_map& vm, SampleOptions& o) {
     else if (d.size() == 1 && d != "\"" && d != "\n") o.reader.delimiter = d[0];
     else throw UsageError("--delimiter must be one character or 'tab', not '" + d + "'");
   }
+  o.discs.enabled = !vm["no-discs"].as<bool>();
+  if (!(o.discs.default_radius_m >= 0)) throw UsageError("--default-uncertainty must be 0 or more metres");
+  if (!(o.discs.max_radius_m > 0)) throw UsageError("--max-uncertainty must be a positive number of metres");
   if (vm.count("threads")) {
     const int t = vm["threads"].as<int>();
     if (t < 1) throw UsageError("--threads must be at least 1");

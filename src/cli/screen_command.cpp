@@ -54,6 +54,19 @@ int screen_command(int argc, char** argv) {
     ("value-columns", po::value(&value_columns)->value_name("A,B,..."),
      "screen values already in the points file (these columns) instead of sampling --layers")
     ("single-taxon", po::bool_switch(&o.single_taxon), "treat the whole file as one taxon (no taxon column needed)")
+    ("dem", po::value(&o.elevation.dem_layer)->value_name("LAYER"),
+     "the layer holding elevation in metres: compare each record's reported elevation with it "
+     "(flag elevation_mismatch)")
+    ("elevation-tolerance", po::value(&o.elevation.tolerance_m)->default_value(o.elevation.tolerance_m)->value_name("M"),
+     "flag only when the reported elevation and the DEM's range within the record's uncertainty are more "
+     "than M metres apart (DEM error, and label elevations rounded to 50-100 m)")
+    ("min-elevation-column", po::value(&o.reader.columns.min_elevation)->default_value(o.reader.columns.min_elevation)->value_name("NAME"),
+     "reported minimum elevation (metres, or with a unit: '1200 m', '3900 ft')")
+    ("max-elevation-column", po::value(&o.reader.columns.max_elevation)->default_value(o.reader.columns.max_elevation)->value_name("NAME"),
+     "reported maximum elevation")
+    ("summary", po::value(&o.summary)->value_name("FILE.csv"),
+     "also write one row per taxon: records, judged, flagged per test and, with --dem, the taxon's robust "
+     "elevation band (median ± z-cutoff robust SD over distinct cells) and the records outside it")
     ("order", po::value<std::string>()->default_value("input")->value_name("input|rank"),
      "row order of the output: input order, or by rank (unscored records last)");
   po::variables_map vm;
@@ -74,6 +87,7 @@ int screen_command(int argc, char** argv) {
   if (!(o.robust_z.cutoff > 0)) throw UsageError("--z-cutoff must be a positive number");
   if (!(o.mahalanobis.quantile > 0 && o.mahalanobis.quantile < 1)) throw UsageError("--chi2-quantile must be between 0 and 1");
   if (min_records < 3) throw UsageError("--min-records must be at least 3");
+  if (!(o.elevation.tolerance_m > 0)) throw UsageError("--elevation-tolerance must be a positive number of metres");
   const RunSummary summary = run_screen(o);
   std::cerr << summary.line() << "\nenvsift: wrote " << o.out << " (flags are for review, not automatic removal)\n";
   return 0;

@@ -16,7 +16,13 @@
 // exactly the classical D² of the raw values (D² is invariant under invertible linear maps).
 //
 // Which layers drive D²: with e the record's standardised deviation from the centre and
-// A = B Σ⁺ Bᵀ (B the component basis), D² = eᵀ A e = Σ_j e_j (A e)_j. A term can be negative
+// A = B Σ⁺ Bᵀ (B the component basis), D² = eᵀ A e = Σ_j e_j (A e)_j.
+//
+// Uncertainty discs: a record may lie anywhere in its disc's [min, max] on each layer; the test
+// judges the combination in that box with the smallest D² (a convex quadratic minimised over a
+// box). This is lenient — the combination need not occur in any single cell of the disc — by
+// design: like the one-layer tests, a record is called an outlier only when nothing within its
+// uncertainty fits. A term can be negative
 // when correlation pulls the other way, so the reported share of layer j is its positive part
 // over the sum of the positive parts: max(0, e_j (A e)_j) / Σ_i max(0, e_i (A e)_i).
 //
@@ -108,6 +114,25 @@ Precision pseudo_inverse(const Eigen::MatrixXd& scatter, double floor) {
   return p;
 }
 
+// The e in the box [lo, hi] with the smallest eᵀ A e (A positive semi-definite), by cyclic
+// coordinate descent from `start`: each step minimises exactly along one coordinate and clamps to
+// its bounds, which converges for a convex quadratic on a box.
+Eigen::VectorXd closest_in_box(const Eigen::MatrixXd& a, const Eigen::VectorXd& lo, const Eigen::VectorXd& hi,
+                               Eigen::VectorXd e) {
+  for (int sweep = 0; sweep < 200; ++sweep) {
+    double moved = 0;
+    for (Eigen::Index j = 0; j < e.size(); ++j) {
+      if (!(a(j, j) > 1e-12)) continue;
+      const double rest = a.row(j).dot(e) - a(j, j) * e[j];
+      const double best = std::clamp(-rest / a(j, j), lo[j], hi[j]);
+      moved = std::max(moved, std::fabs(best - e[j]));
+      e[j] = best;
+    }
+    if (moved < 1e-12) break;
+  }
+  return e;
+}
+
 std::string describe(const std::string& test, double d2, double cutoff, std::size_t k,
                      std::vector<std::pair<double, std::string>> shares) {
   std::stable_sort(shares.begin(), shares.end(), [](const auto& a, const auto& b) { return a.first > b.first; });
@@ -169,6 +194,7 @@ std::vector<Finding> Mahalanobis::judge(const TaxonValues& taxon) const {
   if (precision.rank == 0) return untested(rows, "no_spread:" + name());
   const Eigen::MatrixXd layer_precision = space.basis * precision.matrix * space.basis.transpose();
   const Eigen::VectorXd centre = space.basis * est.center;  // in standardised layer units
+  // D²(z) = (Bᵀz − c)ᵀ Σ⁺ (Bᵀz − c) = (z − Bc)ᵀ A (z − Bc), since Bᵀ B = I.
   const std::size_t dims = precision.rank;
   const double cutoff = chi_square_quantile(static_cast<double>(dims), options_.quantile);
 
@@ -183,9 +209,18 @@ std::vector<Finding> Mahalanobis::judge(const TaxonValues& taxon) const {
       f.untested_reason = "missing_value:" + name();
       continue;
     }
-    // Deviation from the centre within the reduced space, in standardised layer units.
+    // Deviation from the centre in standardised layer units; D² = eᵀ A e.
     const Eigen::VectorXd z = standardise([&](Eigen::Index l) { return taxon.records(row, layers[static_cast<std::size_t>(l)]); });
-    const Eigen::VectorXd e = space.basis * (space.basis.transpose() * z) - centre;
+    Eigen::VectorXd e = z - centre;
+    Eigen::VectorXd lo = e, hi = e;
+    for (Eigen::Index j = 0; j < used; ++j) {
+      const Eigen::Index l = layers[space.layers[static_cast<std::size_t>(j)]];
+      const auto [a, b] = taxon.range(row, l);
+      lo[j] = (a - space.mean[j]) / space.scale[j] - centre[j];
+      hi[j] = (b - space.mean[j]) / space.scale[j] - centre[j];
+    }
+    const bool disc = (hi - lo).maxCoeff() > 0;
+    if (disc) e = closest_in_box(layer_precision, lo, hi, e);
     const Eigen::VectorXd ae = layer_precision * e;
     const double d2 = std::max(0.0, e.dot(ae));
     f.tested = true;
@@ -201,7 +236,8 @@ std::vector<Finding> Mahalanobis::judge(const TaxonValues& taxon) const {
       for (Eigen::Index j = 0; j < used; ++j)
         shares.emplace_back(positive > 0 ? std::max(0.0, e[j] * ae[j]) / positive : 0.0,
                             taxon.layer_names[static_cast<std::size_t>(layers[space.layers[static_cast<std::size_t>(j)]])]);
-      f.reasons.push_back(describe(name(), d2, cutoff, dims, std::move(shares)));
+      f.reasons.push_back(describe(name(), d2, cutoff, dims, std::move(shares)) +
+                          (disc ? ", for the combination within its uncertainty disc closest to the taxon" : ""));
     }
   }
   return findings;

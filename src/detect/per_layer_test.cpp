@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <cstdio>
 
 namespace envsift {
 
@@ -25,9 +26,15 @@ std::vector<Finding> PerLayerTest::judge(const TaxonValues& taxon) const {
       continue;
     }
     for (std::size_t i = 0; i < rows; ++i) {
-      const double x = taxon.records(static_cast<Eigen::Index>(i), l);
-      if (!std::isfinite(x)) continue;
+      const auto [lo, hi] = taxon.range(static_cast<Eigen::Index>(i), l);
+      if (!std::isfinite(lo)) continue;
+      const double x = std::clamp(layer->centre(), lo, hi);  // the best-fitting value in the disc
       LayerVerdict v = layer->judge(x);
+      if (lo < hi && v.statistic > v.threshold) {
+        char buf[160];
+        std::snprintf(buf, sizeof buf, ", the closest value within its uncertainty disc (%.6g to %.6g)", lo, hi);
+        v.reason += buf;
+      }
       const double severity = v.statistic / v.threshold;
       Finding& f = findings[i];
       if (!f.tested || severity > f.severity) {

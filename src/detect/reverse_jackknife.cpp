@@ -94,6 +94,7 @@ class JackknifeLayerJudge : public PerLayerTest::Layer {
     }
     return v;
   }
+  double centre() const override { return j_.mean; }
 
  private:
   JackknifeLayer j_;

@@ -74,6 +74,7 @@ class RobustZLayer : public PerLayerTest::Layer {
     if (v.statistic > cutoff_) v.reason = describe(name_, x, z, spread_.median);
     return v;
   }
+  double centre() const override { return spread_.median; }
 
  private:
   RobustSpread spread_;

@@ -134,6 +134,7 @@ PointTable read_delimited(const std::string& path, const ReaderOptions& o) {
   if (!table.columns.empty() && !table.columns.back().empty() && table.columns.back().back() == '\r')
     table.columns.back().pop_back();
   const ColumnIndex ix = locate_columns(table, o);
+  table.uncertainty_column = ix.uncertainty;
   Occurrence r;
   while (reader.next(r.fields, line)) {
     if (r.fields.size() == 1 && r.fields[0].empty()) continue;  // blank line: not a record
@@ -187,6 +188,7 @@ PointTable read_vector(const std::string& path, const ReaderOptions& o) {
     }
   }
   const ColumnIndex ix = locate_columns(table, o);
+  table.uncertainty_column = ix.uncertainty;
 
   std::size_t feature_number = 0;
   layer->ResetReading();

@@ -55,8 +55,9 @@ TEST(Cli, SampleWritesEveryRecordWithLayerColumnsAndStatus) {
   const Table in = read_csv(source_path("demo-points/occurrences.csv"));
   const Table out = read_csv(dir + "/o.csv");
   EXPECT_EQ(out.rows.size(), in.rows.size());
-  EXPECT_EQ(out.header.size(), in.header.size() + 2);
+  EXPECT_EQ(out.header.size(), in.header.size() + 5);  // the layer, its disc's min/mean/max, status
   EXPECT_EQ(out.header[in.header.size()], "elevation");
+  EXPECT_EQ(out.header[in.header.size() + 3], "elevation_max");
   EXPECT_EQ(out.header.back(), "status");
 }
 

@@ -33,7 +33,11 @@ TEST(DemoScreen, PlantedErrorsRankFirstAndNoRecordIsLost) {
   ASSERT_EQ(out.rows.size(), in.rows.size());
   for (std::size_t i = 0; i < in.rows.size(); ++i)
     ASSERT_TRUE(std::equal(in.rows[i].begin(), in.rows[i].end(), out.rows[i].begin())) << "row " << i;
-  const std::vector<std::string> tail = {"dem", "temperature", "rainfall", "dry_months", "status", "rank", "score",
+  // each layer with its uncertainty disc (the demo has coordinateUncertaintyInMeters), then ours
+  const std::vector<std::string> tail = {"dem", "dem_min", "dem_mean", "dem_max", "temperature", "temperature_min",
+                                         "temperature_mean", "temperature_max", "rainfall", "rainfall_min",
+                                         "rainfall_mean", "rainfall_max", "dry_months", "dry_months_min",
+                                         "dry_months_mean", "dry_months_max", "status", "rank", "score",
                                          "flags", "reasons", "robust_z_stat", "robust_z_cutoff",
                                          "reverse_jackknife_stat", "reverse_jackknife_cutoff", "mahalanobis_stat",
                                          "mahalanobis_cutoff", "mahalanobis_dims", "mahalanobis_robust_stat",

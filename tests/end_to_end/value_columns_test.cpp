@@ -1,6 +1,6 @@
 // Pre-sampled values mode: screening values already in the file must give the same verdicts as
 // sampling the rasters that produced them (the values come from `envsift sample`, which is itself
-// checked against gdallocationinfo). Both runs use --all-records: distinct cells and distinct
+// checked against gdallocationinfo), without uncertainty discs. Both runs use --all-records: distinct cells and distinct
 // value tuples are not the same grouping (two cells can hold equal values). Values read back from
 // text differ from the rasters' float32 cells in the ninth digit, so scores agree to 1e-3.
 #include <gtest/gtest.h>
@@ -19,12 +19,12 @@ const std::string kLayers = " --layers " + source_path("demo-rasters/dem.tif") +
 TEST(ValueColumns, SameVerdictsAsSamplingTheRasters) {
   const auto dir = temp_dir("values");
   const std::string points = source_path("demo-points/occurrences.csv");
-  ASSERT_EQ(run(envsift_binary() + " sample --points " + points + kLayers + " --out " + dir + "/sampled.csv").exit_code, 0);
+  ASSERT_EQ(run(envsift_binary() + " sample --no-discs --points " + points + kLayers + " --out " + dir + "/sampled.csv").exit_code, 0);
   // the sampled file has a status column of its own: rename it so the screen can add one
   std::string sampled = read_file(dir + "/sampled.csv");
   sampled.replace(sampled.find(",status\n"), 8, ",sample_status\n");
   write_file(dir + "/sampled.csv", sampled);
-  auto a = run(envsift_binary() + " screen --all-records --points " + points + kLayers + " --out " + dir + "/rasters.csv");
+  auto a = run(envsift_binary() + " screen --no-discs --all-records --points " + points + kLayers + " --out " + dir + "/rasters.csv");
   auto b = run(envsift_binary() + " screen --all-records --points " + dir +
                "/sampled.csv --value-columns dem,temperature,rainfall,dry_months --out " + dir + "/values.csv");
   ASSERT_EQ(a.exit_code, 0) << a.output;

@@ -2,7 +2,9 @@
 // taxon's records on each layer — and knows nothing of files, CRS or the command line.
 #pragma once
 #include <cmath>
+#include <algorithm>
 #include <cstdint>
+#include <utility>
 #include <string>
 #include <vector>
 
@@ -13,11 +15,24 @@ namespace envsift {
 // The values of one taxon. `reference` holds the rows the taxon's statistics are estimated from
 // (one row per distinct raster cell by default); `records` holds the rows to judge, one per
 // record. Both are rows × layers with NaN for a missing value.
+//
+// Uncertainty discs: when `lower`/`upper` are given (records × layers, NaN = no disc), a record
+// may lie anywhere in [lower, upper] on each layer, and a test judges the value in that range that
+// fits the taxon best: a record is an outlier only when no value inside its disc fits.
 struct TaxonValues {
   const Eigen::MatrixXd& reference;
   const Eigen::MatrixXd& records;
   const std::vector<std::string>& layer_names;
   std::uint64_t seed = 0;  // for randomised tests; derived from the run's seed and the taxon name
+  const Eigen::MatrixXd* lower = nullptr;
+  const Eigen::MatrixXd* upper = nullptr;
+
+  // The range record r may take on layer l: its disc (which holds its point value), else the point.
+  std::pair<double, double> range(Eigen::Index r, Eigen::Index l) const {
+    const double x = records(r, l);
+    if (!lower || !upper || !std::isfinite((*lower)(r, l)) || !std::isfinite((*upper)(r, l))) return {x, x};
+    return {std::min(x, (*lower)(r, l)), std::max(x, (*upper)(r, l))};
+  }
 };
 
 // What one test says of one record.

@@ -26,6 +26,9 @@ class PerLayerTest : public Detector {
    public:
     virtual ~Layer() = default;
     virtual LayerVerdict judge(double x) const = 0;
+    // The value that fits best; within a disc, the value closest to it is judged (the test's
+    // statistic grows with the distance from it on either side).
+    virtual double centre() const = 0;
   };
 
  protected:

@@ -1,5 +1,5 @@
-// Steps 3-5 glued: group records by taxon, run every test on each taxon (in parallel, largest
-// taxa first), and combine each record's findings into a verdict.
+// Steps 3-4 glued: group records by taxon and run every test on each taxon (in parallel,
+// largest taxa first).
 #pragma once
 #include <cstdint>
 #include <memory>
@@ -9,7 +9,6 @@
 #include <Eigen/Core>
 
 #include "envsift/detect/detector.hpp"
-#include "envsift/score/scoring.hpp"
 
 namespace envsift {
 
@@ -19,11 +18,19 @@ struct ScreeningInput {
   const std::vector<std::string>& taxa;     // per record
   const std::vector<bool>& eligible;        // records to judge
   const std::vector<std::string>& layer_names;
+  const Eigen::MatrixXd* lower = nullptr;  // uncertainty discs (see TaxonValues)
+  const Eigen::MatrixXd* upper = nullptr;
+};
+
+struct ScreenedTaxon {
+  std::string taxon;
+  std::vector<std::size_t> records;    // ascending
+  std::vector<std::size_t> reference;  // the records its statistics were estimated from
 };
 
 struct ScreeningResult {
-  std::vector<Verdict> verdicts;               // per record (empty verdict when not eligible)
-  std::vector<std::vector<Finding>> findings;  // [test][record]
+  std::vector<ScreenedTaxon> taxa;             // sorted by name
+  std::vector<std::vector<Finding>> findings;  // [test][record]; untested for records not eligible
 };
 
 // distinct_cells: each taxon's statistics are estimated from one row per distinct cell key, so

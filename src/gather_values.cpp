@@ -1,0 +1,155 @@
+#include "gather_values.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <cstring>
+
+#include "envsift/errors.hpp"
+#include "envsift/read/coordinates.hpp"
+#include "envsift/read/elevation_text.hpp"
+#include "envsift/reason_codes.hpp"
+
+namespace envsift::detail {
+namespace {
+
+void check_unique_columns(const std::vector<std::string>& columns) {
+  for (std::size_t i = 0; i < columns.size(); ++i)
+    for (std::size_t j = 0; j < i; ++j)
+      if (columns[i] == columns[j])
+        throw UsageError("the output would have two columns named '" + columns[i] +
+                         "' (an input column, a layer or an envsift column); rename the input column, or "
+                         "name the layer with NAME=PATH");
+}
+
+std::string metres(double m) {
+  char buf[32];
+  std::snprintf(buf, sizeof buf, "%.0f m", m);
+  return buf;
+}
+
+}  // namespace
+
+void add_code(std::vector<std::string>& codes, const std::string& code) {
+  if (std::find(codes.begin(), codes.end(), code) == codes.end()) codes.push_back(code);
+}
+
+Gathered sample_rasters(const SampleOptions& o, const std::vector<std::string>& added_columns) {
+  Gathered g;
+  auto specs = expand_layer_arguments(o.layers);
+  g.table = read_points(o.points, o.reader);
+  const std::size_t n = g.table.records.size();
+  g.has_discs = o.discs.enabled && (g.table.uncertainty_column || o.discs.default_radius_m > 0);
+  std::vector<std::string> columns = g.table.columns;
+  for (const auto& spec : specs) {
+    columns.push_back(spec.name);
+    if (g.has_discs)
+      for (const char* s : {"_min", "_mean", "_max"}) columns.push_back(spec.name + s);
+  }
+  columns.insert(columns.end(), added_columns.begin(), added_columns.end());
+  check_unique_columns(columns);
+
+  RasterStack stack(specs, o.cache_megabytes << 20);
+  std::vector<double> lon(n), lat(n);
+  for (std::size_t i = 0; i < n; ++i) {
+    lon[i] = g.table.records[i].longitude;
+    lat[i] = g.table.records[i].latitude;
+  }
+  Samples samples = stack.sample(lon, lat, o.method);
+  g.values = std::move(samples.values);
+  g.cells = std::move(samples.cell);
+  for (const auto& l : stack.layers()) {
+    g.layer_names.push_back(l.spec.name);
+    g.float32.push_back(o.method == Interpolation::nearest && l.float32_values);
+  }
+  g.status.resize(n);
+  g.notes.resize(n);
+  for (std::size_t i = 0; i < n; ++i) {
+    g.status[i] = g.table.records[i].problems;
+    for (std::size_t l = 0; l < g.layer_names.size(); ++l) {
+      const CellStatus c = samples.status_at(i, l);
+      if (c == CellStatus::outside) g.status[i].push_back(reason::on_layer(reason::outside_layer, g.layer_names[l]));
+      if (c == CellStatus::nodata) g.status[i].push_back(reason::on_layer(reason::nodata, g.layer_names[l]));
+    }
+  }
+  g.radius_m.assign(n, 0.0);
+  if (g.has_discs) {
+    for (std::size_t i = 0; i < n; ++i) {
+      const auto& u = g.table.records[i].uncertainty_m;
+      double r = u ? *u : o.discs.default_radius_m;
+      if (r > o.discs.max_radius_m) {
+        g.status[i].push_back(reason::uncertainty_capped);
+        g.notes[i].push_back("uncertainty " + metres(r) + " cut to " + metres(o.discs.max_radius_m));
+        r = o.discs.max_radius_m;
+      }
+      g.radius_m[i] = r;
+    }
+    g.discs = stack.sample_discs(lon, lat, g.radius_m);
+  }
+  return g;
+}
+
+Gathered read_value_columns(const ScreenOptions& o, const std::vector<std::string>& added_columns) {
+  Gathered g;
+  ReaderOptions reader = o.reader;
+  reader.coordinates_optional = true;
+  g.table = read_points(o.points, reader);
+  g.layers_are_columns = true;
+  std::vector<std::string> columns = g.table.columns;
+  columns.insert(columns.end(), added_columns.begin(), added_columns.end());
+  check_unique_columns(columns);
+  std::vector<std::size_t> index;
+  for (const auto& name : o.value_columns) {
+    auto it = std::find(g.table.columns.begin(), g.table.columns.end(), name);
+    if (it == g.table.columns.end())
+      throw InputError(o.points, 1, "no value column '" + name + "'", "check the names given to --value-columns");
+    index.push_back(static_cast<std::size_t>(it - g.table.columns.begin()));
+    g.layer_names.push_back(name);
+    g.float32.push_back(false);
+  }
+  const std::size_t n = g.table.records.size();
+  g.values = Eigen::MatrixXd::Constant(static_cast<Eigen::Index>(n), static_cast<Eigen::Index>(index.size()), std::nan(""));
+  g.cells.assign(n, 0);
+  g.status.resize(n);
+  g.notes.resize(n);
+  g.radius_m.assign(n, 0.0);
+  for (std::size_t i = 0; i < n; ++i) {
+    const Occurrence& r = g.table.records[i];
+    for (const auto& p : r.problems)
+      if (p == reason::ragged_row || p == reason::uncertainty_not_numeric) g.status[i].push_back(p);
+    std::uint64_t key = 0xcbf29ce484222325ull;  // FNV-1a over the values' bits: equal values, equal key
+    for (std::size_t l = 0; l < index.size(); ++l) {
+      const ParsedNumber v = parse_number(r.fields[index[l]]);
+      if (v.problem.empty()) {
+        g.values(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(l)) = v.value;
+        std::uint64_t bits;
+        std::memcpy(&bits, &v.value, sizeof bits);
+        key = (key ^ bits) * 0x100000001b3ull;
+      } else {
+        g.status[i].push_back(reason::on_layer(v.problem == "empty" ? reason::value_missing : reason::value_not_numeric,
+                                               g.layer_names[l]));
+        key = (key ^ 0x9E3779B97F4A7C15ull) * 0x100000001b3ull;
+      }
+    }
+    g.cells[i] = key;
+  }
+  return g;
+}
+
+std::vector<ReportedElevation> reported_elevations(Gathered& g, const ColumnNames& columns) {
+  std::vector<ReportedElevation> out(g.table.records.size());
+  std::vector<std::pair<std::string, std::optional<double> ReportedElevation::*>> wanted{
+      {columns.min_elevation, &ReportedElevation::min_m}, {columns.max_elevation, &ReportedElevation::max_m}};
+  for (const auto& [name, member] : wanted) {
+    auto it = std::find(g.table.columns.begin(), g.table.columns.end(), name);
+    if (name.empty() || it == g.table.columns.end()) continue;
+    const auto col = static_cast<std::size_t>(it - g.table.columns.begin());
+    for (std::size_t i = 0; i < out.size(); ++i) {
+      const ParsedElevation e = parse_elevation(g.table.records[i].fields[col]);
+      if (!e.problem.empty()) add_code(g.status[i], reason::on_layer(e.problem, name));
+      else if (e.present) out[i].*member = e.metres;
+    }
+  }
+  return out;
+}
+
+}  // namespace envsift::detail

@@ -1,0 +1,38 @@
+// Private to the pipeline: records and the values to judge them by — sampled from rasters (with
+// uncertainty discs) or read from the input's own columns — plus reason codes per record.
+#pragma once
+#include <cstdint>
+#include <string>
+#include <vector>
+
+#include <Eigen/Core>
+
+#include "envsift/detect/reported_elevation.hpp"
+#include "envsift/pipeline.hpp"
+
+namespace envsift::detail {
+
+struct Gathered {
+  PointTable table;
+  std::vector<std::string> layer_names;
+  std::vector<bool> float32;        // per layer: print as 32-bit float
+  bool layers_are_columns = false;  // values came from input columns: no layer columns are added
+  Eigen::MatrixXd values;           // records × layers, NaN = missing
+  std::vector<std::uint64_t> cells; // equal keys = same cells (or same values)
+  bool has_discs = false;
+  DiscSamples discs;                // valid when has_discs
+  std::vector<double> radius_m;     // disc radius used per record (0 = none)
+  std::vector<std::vector<std::string>> status;  // reason codes per record
+  std::vector<std::vector<std::string>> notes;   // words for `reasons` (e.g. a capped disc)
+};
+
+// `added_columns`: what the caller will append, checked against the input's and layers' names.
+Gathered sample_rasters(const SampleOptions& o, const std::vector<std::string>& added_columns);
+Gathered read_value_columns(const ScreenOptions& o, const std::vector<std::string>& added_columns);
+
+// Reported elevations of every record (problems go to `status`).
+std::vector<ReportedElevation> reported_elevations(Gathered& g, const ColumnNames& columns);
+
+void add_code(std::vector<std::string>& codes, const std::string& code);
+
+}  // namespace envsift::detail
