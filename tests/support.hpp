@@ -17,6 +17,14 @@ namespace envsift::testing {
 inline std::string source_path(const std::string& relative) { return std::string(ENVSIFT_SOURCE_DIR) + "/" + relative; }
 inline std::string envsift_binary() { return ENVSIFT_BINARY; }
 
+// " --layers" and the four demo rasters, in the order the demo uses.
+inline std::string demo_layers() {
+  std::string s = " --layers";
+  for (const char* name : {"dem", "temperature", "rainfall", "dry_months"})
+    s += " " + source_path(std::string("demo-rasters/") + name + ".tif");
+  return s;
+}
+
 // A fresh directory for one test's files.
 inline std::string temp_dir(const std::string& name) {
   std::string dir = ::testing::TempDir() + "envsift-" + name;

@@ -15,9 +15,7 @@ namespace {
 using namespace envsift::testing;
 
 std::string screen_command(const std::string& out, const std::string& extra = "") {
-  return envsift_binary() + " screen --points " + source_path("demo-points/occurrences.csv") + " --layers " +
-         source_path("demo-rasters/dem.tif") + " " + source_path("demo-rasters/temperature.tif") + " " +
-         source_path("demo-rasters/rainfall.tif") + " " + source_path("demo-rasters/dry_months.tif") +
+  return envsift_binary() + " screen --points " + source_path("demo-points/occurrences.csv") + demo_layers() +
          " --out " + out + " " + extra;
 }
 

@@ -11,9 +11,7 @@ namespace {
 
 using namespace envsift::testing;
 
-const std::string kLayers = " --layers " + source_path("demo-rasters/dem.tif") + " " +
-                            source_path("demo-rasters/temperature.tif") + " " +
-                            source_path("demo-rasters/rainfall.tif") + " " + source_path("demo-rasters/dry_months.tif");
+const std::string kLayers = demo_layers();
 
 // The demo occurrences with QM-0003's uncertainty replaced.
 std::string with_uncertainty(const std::string& dir, const std::string& metres) {

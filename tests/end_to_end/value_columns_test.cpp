@@ -12,9 +12,7 @@ namespace {
 
 using namespace envsift::testing;
 
-const std::string kLayers = " --layers " + source_path("demo-rasters/dem.tif") + " " +
-                            source_path("demo-rasters/temperature.tif") + " " +
-                            source_path("demo-rasters/rainfall.tif") + " " + source_path("demo-rasters/dry_months.tif");
+const std::string kLayers = demo_layers();
 
 TEST(ValueColumns, SameVerdictsAsSamplingTheRasters) {
   const auto dir = temp_dir("values");
