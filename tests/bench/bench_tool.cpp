@@ -1,0 +1,137 @@
+// envsift_bench: synthetic workloads and timings for scripts/bench*. Not a test: numbers from
+// here go to the README's performance tables.
+//
+//   envsift_bench layers DIR COUNT WIDTH HEIGHT [W S E N]  float32 GeoTIFFs, tiled, DEFLATE (default: the globe)
+//   envsift_bench points FILE N TAXA SEED [W S E N]        clustered occurrences in Darwin Core columns
+//   envsift_bench discs LAYER POINTS N RADIUS_M...  seconds per record to sample discs of each radius
+#include <chrono>
+#include <cmath>
+#include <cstdio>
+#include <algorithm>
+#include <cstdlib>
+#include <fstream>
+#include <random>
+#include <string>
+#include <vector>
+
+#include <gdal_priv.h>
+#include <ogr_spatialref.h>
+
+#include "envsift/sample/raster_stack.hpp"
+
+namespace {
+
+// Smooth fields plus hashed noise, so that compression and decoding cost what real climate
+// layers cost (a constant raster would compress to nothing).
+struct Extent {
+  double west = -180, south = -90, east = 180, north = 90;
+};
+
+Extent extent_from(int argc, char** argv, int first) {
+  Extent e;
+  if (argc >= first + 4)
+    e = {std::atof(argv[first]), std::atof(argv[first + 1]), std::atof(argv[first + 2]), std::atof(argv[first + 3])};
+  return e;
+}
+
+void make_layers(const std::string& dir, int count, int width, int height, const Extent& e) {
+  GDALAllRegister();
+  OGRSpatialReference srs;
+  srs.importFromEPSG(4326);
+  char** options = nullptr;
+  for (const char* o : {"TILED=YES", "BLOCKXSIZE=256", "BLOCKYSIZE=256", "COMPRESS=DEFLATE", "PREDICTOR=3"})
+    options = CSLAddString(options, o);
+  std::vector<float> row(static_cast<std::size_t>(width));
+  for (int k = 0; k < count; ++k) {
+    const std::string path = dir + "/layer" + std::to_string(k + 1) + ".tif";
+    GDALDataset* ds = GetGDALDriverManager()->GetDriverByName("GTiff")->Create(path.c_str(), width, height, 1,
+                                                                                GDT_Float32, options);
+    const double dx = (e.east - e.west) / width, dy = (e.north - e.south) / height;
+    double gt[6] = {e.west, dx, 0, e.north, 0, -dy};
+    ds->SetGeoTransform(gt);
+    ds->SetSpatialRef(&srs);
+    GDALRasterBand* band = ds->GetRasterBand(1);
+    for (int r = 0; r < height; ++r) {
+      const double lat = e.north - (r + 0.5) * dy;
+      for (int c = 0; c < width; ++c) {
+        const double lon = e.west + (c + 0.5) * dx;
+        std::uint32_t h = static_cast<std::uint32_t>(c * 73856093u) ^ static_cast<std::uint32_t>(r * 19349663u) ^
+                          static_cast<std::uint32_t>(k * 83492791u);
+        h ^= h >> 13, h *= 0x5bd1e995u, h ^= h >> 15;
+        row[static_cast<std::size_t>(c)] = static_cast<float>(
+            100 * std::sin(lat * 0.05 * (k + 1)) + 50 * std::cos(lon * 0.03 * (k + 2)) + (h % 1000) / 100.0);
+      }
+      if (band->RasterIO(GF_Write, 0, r, width, 1, row.data(), width, 1, GDT_Float32, 0, 0) != CE_None) std::exit(1);
+    }
+    GDALClose(ds);
+  }
+  CSLDestroy(options);
+}
+
+// Taxa with clustered ranges: each taxon has a few centres; records scatter around them.
+void make_points(const std::string& file, long n, int taxa, unsigned seed, const Extent& e) {
+  std::mt19937_64 rng(seed);
+  const double mx = (e.east - e.west) * 0.03, my = (e.north - e.south) * 0.03;  // keep centres off the edges
+  std::uniform_real_distribution<double> lon(e.west + mx, e.east - mx), lat(std::max(e.south + my, -60.0),
+                                                                              std::min(e.north - my, 70.0)),
+      unit(0, 1);
+  std::normal_distribution<double> spread(0, 1);
+  std::vector<std::vector<std::pair<double, double>>> centres(static_cast<std::size_t>(taxa));
+  for (auto& c : centres)
+    for (int k = 0; k < 3; ++k) c.emplace_back(lon(rng), lat(rng));
+  std::ofstream out(file);
+  out << "occurrenceID,scientificName,decimalLongitude,decimalLatitude,coordinateUncertaintyInMeters\n";
+  out.precision(7);
+  for (long i = 0; i < n; ++i) {
+    // taxon sizes skewed as in real data: a few common taxa, many rare ones
+    const int t = static_cast<int>(std::pow(unit(rng), 2.0) * taxa);
+    const auto& c = centres[static_cast<std::size_t>(t)][static_cast<std::size_t>(i % 3)];
+    out << "B" << i << ",Taxon " << t << "," << std::clamp(c.first + mx * spread(rng), e.west, e.east) << ","
+        << std::clamp(c.second + my * spread(rng), e.south, e.north) << ",1000\n";
+  }
+}
+
+double seconds_since(std::chrono::steady_clock::time_point t) {
+  return std::chrono::duration<double>(std::chrono::steady_clock::now() - t).count();
+}
+
+void time_discs(const std::string& layer, const std::string& points, long n, const std::vector<double>& radii) {
+  std::ifstream in(points);
+  std::string line;
+  std::getline(in, line);
+  std::vector<double> lon, lat;
+  while (static_cast<long>(lon.size()) < n && std::getline(in, line)) {
+    std::size_t a = line.find(','), b = line.find(',', a + 1), c = line.find(',', b + 1), d = line.find(',', c + 1);
+    lon.push_back(std::stod(line.substr(b + 1, c - b - 1)));
+    lat.push_back(std::stod(line.substr(c + 1, d - c - 1)));
+  }
+  std::printf("radius_m,records,seconds,microseconds_per_record,blocks_read\n");
+  for (double r : radii) {
+    envsift::RasterStack stack(envsift::expand_layer_arguments({layer}));
+    const auto start = std::chrono::steady_clock::now();
+    stack.sample_discs(lon, lat, std::vector<double>(lon.size(), r));
+    const double s = seconds_since(start);
+    std::printf("%.0f,%zu,%.3f,%.1f,%zu\n", r, lon.size(), s, 1e6 * s / static_cast<double>(lon.size()),
+                stack.cache().loads());
+  }
+}
+
+}  // namespace
+
+int main(int argc, char** argv) {
+  const std::string what = argc > 1 ? argv[1] : "";
+  if (what == "layers" && argc >= 6)
+    make_layers(argv[2], std::atoi(argv[3]), std::atoi(argv[4]), std::atoi(argv[5]), extent_from(argc, argv, 6));
+  else if (what == "points" && argc >= 6)
+    make_points(argv[2], std::atol(argv[3]), std::atoi(argv[4]), static_cast<unsigned>(std::atoi(argv[5])),
+                extent_from(argc, argv, 6));
+  else if (what == "discs" && argc >= 6) {
+    std::vector<double> radii;
+    for (int i = 5; i < argc; ++i) radii.push_back(std::atof(argv[i]));
+    time_discs(argv[2], argv[3], std::atol(argv[4]), radii);
+  } else {
+    std::fprintf(stderr, "usage: see the comment at the top of tests/bench/bench_tool.cpp\n");
+    return 2;
+  }
+  return 0;
+}
