@@ -1,7 +1,9 @@
 #include "envsift/read/coordinates.hpp"
 
+#include <cctype>
 #include <charconv>
 #include <cmath>
+#include <vector>
 
 #include "envsift/reason_codes.hpp"
 
@@ -35,11 +37,105 @@ ParsedNumber parse_number(std::string_view text) {
   return out;
 }
 
+namespace {
+
+// Removes a leading or trailing hemisphere letter; returns it (upper case) or 0.
+char take_hemisphere(std::string& s) {
+  auto letter = [](char c) {
+    c = static_cast<char>(std::toupper(static_cast<unsigned char>(c)));
+    return c == 'N' || c == 'S' || c == 'E' || c == 'W' ? c : 0;
+  };
+  if (s.empty()) return 0;
+  const bool designators = s.find_first_of("dm") != std::string::npos;
+  if (char c = letter(s.back()); c && !(s.back() == 's' && designators)) {  // "12d30m15s": seconds, not south
+    s.pop_back();
+    s = std::string(trim(s));
+    return c;
+  }
+  if (char c = letter(s.front())) {
+    s.erase(0, 1);
+    s = std::string(trim(s));
+    return c;
+  }
+  return 0;
+}
+
+// Degrees, minutes and seconds split by °, º, d, ', ′, m, ", ″, s, : or spaces.
+bool parse_dms(const std::string& s, double& value) {
+  std::vector<std::string> parts(1);
+  bool negative = false;
+  std::size_t i = 0;
+  if (!s.empty() && (s[0] == '-' || s[0] == '+')) negative = s[0] == '-', i = 1;
+  for (; i < s.size(); ++i) {
+    const unsigned char c = static_cast<unsigned char>(s[i]);
+    if (std::isdigit(c) || c == '.') parts.back() += static_cast<char>(c);
+    else if (!parts.back().empty()) parts.emplace_back();
+    // any other byte (spaces, ° ′ ″ in UTF-8, d m s ' " :) separates
+    if (std::isalpha(c) && c != 'd' && c != 'm' && c != 's' && c != 'D' && c != 'M' && c != 'S') return false;
+  }
+  if (parts.back().empty()) parts.pop_back();
+  if (parts.empty() || parts.size() > 3) return false;
+  double v[3] = {0, 0, 0};
+  for (std::size_t k = 0; k < parts.size(); ++k) {
+    auto [end, ec] = std::from_chars(parts[k].data(), parts[k].data() + parts[k].size(), v[k]);
+    if (ec != std::errc() || end != parts[k].data() + parts[k].size()) return false;
+  }
+  if (parts.size() > 1 && (v[1] >= 60 || v[2] >= 60 || std::floor(v[0]) != v[0])) return false;
+  if (parts.size() > 2 && std::floor(v[1]) != v[1]) return false;
+  value = (negative ? -1 : 1) * (v[0] + v[1] / 60 + v[2] / 3600);
+  return true;
+}
+
+bool only_digits_and_one(std::string_view s, char separator) {
+  std::size_t seps = 0;
+  for (std::size_t i = 0; i < s.size(); ++i) {
+    if (s[i] == separator) ++seps;
+    else if (!std::isdigit(static_cast<unsigned char>(s[i])) && !(i == 0 && (s[i] == '-' || s[i] == '+'))) return false;
+  }
+  return seps == 1 && s.back() != separator && std::isdigit(static_cast<unsigned char>(s[s[0] == '-' || s[0] == '+'])) ;
+}
+
+}  // namespace
+
 ParsedNumber parse_coordinate(std::string_view text, Axis axis) {
   ParsedNumber out = parse_number(text);
   if (out.problem == "empty") {
     out.problem = reason::coord_missing;
-  } else if (out.problem.empty()) {
+    return out;
+  }
+  if (out.problem == reason::coord_not_numeric) {
+    std::string s(trim(text));
+    const char hemisphere = take_hemisphere(s);
+    double value = 0;
+    bool read = false;
+    if (only_digits_and_one(s, ',')) {  // "12,5": a decimal comma
+      std::string dotted = s;
+      dotted[dotted.find(',')] = '.';
+      const ParsedNumber n = parse_number(dotted);
+      read = n.problem.empty();
+      value = n.value;
+      out.note = reason::coord_decimal_comma;
+    } else if (const ParsedNumber n = parse_number(s); n.problem.empty()) {
+      read = true;
+      value = n.value;
+    } else if (parse_dms(s, value)) {
+      read = true;
+      out.note = reason::coord_dms;
+    }
+    if (!read) return out;  // coord_not_numeric
+    if (hemisphere) {
+      const bool fits = axis == Axis::latitude ? (hemisphere == 'N' || hemisphere == 'S') : (hemisphere == 'E' || hemisphere == 'W');
+      if (!fits || value < 0) {  // a letter for the other axis, or a sign and a letter at once
+        out.problem = reason::coord_wrong_hemisphere;
+        return out;
+      }
+      if (hemisphere == 'S' || hemisphere == 'W') value = -value;
+      if (out.note.empty()) out.note = reason::coord_hemisphere;
+    }
+    out.value = value;
+    out.problem.clear();
+  }
+  if (out.problem.empty()) {
     const double limit = axis == Axis::latitude ? 90.0 : 180.0;
     if (std::fabs(out.value) > limit) out.problem = reason::coord_out_of_range;
   }

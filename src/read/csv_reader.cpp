@@ -14,6 +14,10 @@ bool CsvReader::next(std::vector<std::string>& fields, std::size_t& line) {
   fields.clear();
   if (at_start_) {
     at_start_ = false;
+    const int first = peek();
+    if (first == 0xFF || first == 0xFE)  // a UTF-16 byte-order mark (FF FE or FE FF)
+      throw InputError(source_, 1, "the file is UTF-16, not UTF-8 text",
+                       "save it as UTF-8 (or CSV UTF-8) and run again");
     static const unsigned char bom[3] = {0xEF, 0xBB, 0xBF};
     if (peek() == bom[0]) {
       in_.get();
@@ -35,6 +39,9 @@ bool CsvReader::next(std::vector<std::string>& fields, std::size_t& line) {
   std::size_t quote_line = 0;
   for (;;) {
     int c = get();
+    if (c == 0)
+      throw InputError(source_, line_, "a NUL byte: this is not a text file (or it is UTF-16 without a byte-order mark)",
+                       "check the file, or save it as UTF-8 text");
     if (c == std::char_traits<char>::eof()) {
       if (quoted)
         throw InputError(source_, quote_line, "quote opened here is never closed",

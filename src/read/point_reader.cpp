@@ -3,9 +3,11 @@
 #include <algorithm>
 #include <cctype>
 #include <charconv>
+#include <cmath>
 #include <fstream>
 #include <memory>
 #include <optional>
+#include <unordered_map>
 
 #include <gdal_priv.h>
 #include <ogrsf_frmts.h>
@@ -14,6 +16,7 @@
 #include "gdal_init.hpp"
 #include "envsift/read/coordinates.hpp"
 #include "envsift/read/csv_reader.hpp"
+#include "envsift/read/text_encoding.hpp"
 #include "envsift/reason_codes.hpp"
 
 namespace envsift {
@@ -92,12 +95,14 @@ void parse_record(Occurrence& r, const ColumnIndex& ix, std::size_t column_count
     auto lon = parse_coordinate(r.fields[*ix.longitude], Axis::longitude);
     auto lat = parse_coordinate(r.fields[*ix.latitude], Axis::latitude);
     for (const auto* p : {&lon, &lat})
-      if (!p->problem.empty() &&
-          std::find(r.problems.begin(), r.problems.end(), p->problem) == r.problems.end())
-        r.problems.push_back(p->problem);
+      for (const auto* code : {&p->problem, &p->note})
+        if (!code->empty() && std::find(r.problems.begin(), r.problems.end(), *code) == r.problems.end())
+          r.problems.push_back(*code);
     if (lon.problem.empty() && lat.problem.empty()) {
       r.longitude = lon.value;
       r.latitude = lat.value;
+    } else if (lat.problem == reason::coord_out_of_range && lon.problem.empty() && std::fabs(lon.value) <= 90) {
+      r.problems.push_back(reason::coord_possibly_swapped);  // reported, never corrected
     }
   }
   if (ix.id) r.id = r.fields[*ix.id];
@@ -133,12 +138,23 @@ PointTable read_delimited(const std::string& path, const ReaderOptions& o) {
     throw InputError(path, 1, "the file is empty", "give a file with a header line and one record per line");
   if (!table.columns.empty() && !table.columns.back().empty() && table.columns.back().back() == '\r')
     table.columns.back().pop_back();
+  for (auto& c : table.columns) {
+    bool changed;
+    c = to_utf8(c, changed);
+  }
   const ColumnIndex ix = locate_columns(table, o);
   table.uncertainty_column = ix.uncertainty;
   Occurrence r;
   while (reader.next(r.fields, line)) {
     if (r.fields.size() == 1 && r.fields[0].empty()) continue;  // blank line: not a record
     r.line = line;
+    bool converted = false;
+    for (auto& f : r.fields) {
+      bool changed;
+      f = to_utf8(f, changed);
+      converted = converted || changed;
+    }
+    if (converted) r.problems.push_back(reason::latin1_converted);
     parse_record(r, ix, table.columns.size());
     table.records.push_back(std::move(r));
     r = Occurrence{};
@@ -224,7 +240,14 @@ bool is_delimited_text(const std::string& path) {
 }
 
 PointTable read_points(const std::string& path, const ReaderOptions& options) {
-  return is_delimited_text(path) ? read_delimited(path, options) : read_vector(path, options);
+  PointTable t = is_delimited_text(path) ? read_delimited(path, options) : read_vector(path, options);
+  // Duplicate IDs: every record sharing an ID is kept and marked.
+  std::unordered_map<std::string, std::size_t> seen;
+  for (const auto& r : t.records)
+    if (!r.id.empty()) ++seen[r.id];
+  for (auto& r : t.records)
+    if (!r.id.empty() && seen[r.id] > 1) r.problems.push_back(reason::duplicate_id);
+  return t;
 }
 
 }  // namespace envsift

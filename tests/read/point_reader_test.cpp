@@ -70,14 +70,14 @@ TEST(PointReader, BadCoordinatesAreKeptWithReasonCodes) {
              "1,inf\n"     // not finite
              "1e999,1\n"   // overflows a double
              "181,1\n"     // out of range
-             "1,-90.5\n"   // out of range
+             "1,-90.5\n"   // out of range; as (lon -90.5, lat 1) it would fit: possibly swapped
              "+1.5, 2 \n"  // fine: sign and spaces
              "1\n");       // ragged: latitude missing
   PointTable t = read_points(dir + "/p.csv", {});
   ASSERT_EQ(t.records.size(), 9u);  // none dropped
   const std::vector<std::vector<std::string>> expected = {
       {"coord_missing"}, {"coord_not_numeric"}, {"coord_not_finite"}, {"coord_not_finite"}, {"coord_not_finite"},
-      {"coord_out_of_range"}, {"coord_out_of_range"}, {}, {"ragged_row", "coord_missing"}};
+      {"coord_out_of_range"}, {"coord_out_of_range", "coord_possibly_swapped"}, {}, {"ragged_row", "coord_missing"}};
   for (std::size_t i = 0; i < expected.size(); ++i) EXPECT_EQ(t.records[i].problems, expected[i]) << "row " << i;
   EXPECT_DOUBLE_EQ(t.records[7].longitude, 1.5);
   EXPECT_DOUBLE_EQ(t.records[7].latitude, 2);

@@ -10,11 +10,17 @@ enum class Axis { longitude, latitude };
 struct ParsedNumber {
   double value = 0;
   std::string problem;  // empty when `value` is usable, else a reason code
+  std::string note;     // a usable value read from an unusual form (reason code, e.g. coord_dms)
 };
 
-// Decimal degrees: surrounding spaces are ignored; empty → coord_missing; text that is not
-// entirely a number → coord_not_numeric; NaN, inf or overflow → coord_not_finite;
-// outside [-90, 90] (latitude) or [-180, 180] (longitude) → coord_out_of_range.
+// Coordinates as people write them. Read, with a note code on the record:
+//   decimal degrees            "-12.5", "+12.5", " 12.5 "
+//   hemisphere letters         "12.5S", "S 12.5", "12.5 w"            note coord_hemisphere
+//   degrees-minutes-seconds    "12°30'15\"S", "12 30 15 S", "12d30m", "12°30.25'"   note coord_dms
+//   a decimal comma            "12,5" (one comma, no point)            note coord_decimal_comma
+// Refused, with a problem code: empty → coord_missing; not a coordinate → coord_not_numeric;
+// N/S on a longitude or E/W on a latitude → coord_wrong_hemisphere; NaN, inf or overflow →
+// coord_not_finite; outside [-90, 90] / [-180, 180] → coord_out_of_range.
 ParsedNumber parse_coordinate(std::string_view text, Axis axis);
 
 // A plain decimal number (no range check). Empty text gives problem "empty".
