@@ -48,7 +48,7 @@ Gathered sample_rasters(const SampleOptions& o, const std::vector<std::string>& 
   columns.insert(columns.end(), added_columns.begin(), added_columns.end());
   check_unique_columns(columns);
 
-  RasterStack stack(specs, o.cache_megabytes << 20);
+  RasterStack stack(specs, o.cache_megabytes << 20, o.assume_crs);
   std::vector<double> lon(n), lat(n);
   for (std::size_t i = 0; i < n; ++i) {
     lon[i] = g.table.records[i].longitude;
@@ -70,6 +70,30 @@ Gathered sample_rasters(const SampleOptions& o, const std::vector<std::string>& 
       if (c == CellStatus::outside) g.status[i].push_back(reason::on_layer(reason::outside_layer, g.layer_names[l]));
       if (c == CellStatus::nodata) g.status[i].push_back(reason::on_layer(reason::nodata, g.layer_names[l]));
     }
+  }
+  // A layer that no record falls on is almost always a CRS or extent mistake: say so.
+  std::size_t with_coordinates = 0;
+  for (const auto& r : g.table.records) with_coordinates += r.has_coordinates();
+  for (std::size_t l = 0; l < g.layer_names.size() && with_coordinates > 0; ++l) {
+    std::size_t inside = 0;
+    for (std::size_t i = 0; i < n; ++i) inside += samples.status_at(i, l) != CellStatus::outside && g.table.records[i].has_coordinates();
+    if (inside == 0)
+      g.warnings.push_back("layer " + g.layer_names[l] + " (" + specs[l].path +
+                           "): no record falls inside it; check its extent and CRS, and the records' coordinates");
+  }
+  // A record that no layer has a value for, but would with latitude and longitude swapped.
+  std::vector<std::size_t> lost;
+  for (std::size_t i = 0; i < n; ++i)
+    if (g.table.records[i].has_coordinates() && !g.values.row(static_cast<Eigen::Index>(i)).array().isFinite().any() &&
+        std::fabs(lat[i]) <= 180 && std::fabs(lon[i]) <= 90)
+      lost.push_back(i);
+  if (!lost.empty()) {
+    std::vector<double> swapped_lon, swapped_lat;
+    for (std::size_t i : lost) swapped_lon.push_back(lat[i]), swapped_lat.push_back(lon[i]);
+    const Samples swapped = stack.sample(swapped_lon, swapped_lat, Interpolation::nearest);
+    for (std::size_t k = 0; k < lost.size(); ++k)
+      if (swapped.values.row(static_cast<Eigen::Index>(k)).array().isFinite().any())
+        add_code(g.status[lost[k]], reason::coord_possibly_swapped);  // reported, never corrected
   }
   g.radius_m.assign(n, 0.0);
   if (g.has_discs) {

@@ -24,6 +24,7 @@ struct Gathered {
   std::vector<double> radius_m;     // disc radius used per record (0 = none)
   std::vector<std::vector<std::string>> status;  // reason codes per record
   std::vector<std::vector<std::string>> notes;   // words for `reasons` (e.g. a capped disc)
+  std::vector<std::string> warnings;             // for stderr
 };
 
 // `added_columns`: what the caller will append, checked against the input's and layers' names.

@@ -112,14 +112,22 @@ std::string RunSummary::line() const {
   return s;
 }
 
+std::string RunSummary::codes_line() const {
+  std::vector<std::string> parts;
+  for (const auto& [code, count] : codes) parts.push_back(code + " " + std::to_string(count));
+  return "envsift: reason codes: " + (parts.empty() ? std::string("none") : join(parts, ", "));
+}
+
 RunSummary run_sample(const SampleOptions& o) {
   const std::vector<std::string> added{"status"};
   const Gathered g = detail::sample_rasters(o, added);
   CsvWriter out(o.out);
   out.row(output_header(g, added));
   RunSummary summary;
+  summary.warnings = g.warnings;
   for (std::size_t i = 0; i < g.table.records.size(); ++i) {
     out.row(output_row(g, i));
+    for (const auto& c : g.status[i]) ++summary.codes[c];
     ++summary.read;
     if (has_any_value(g.values, i)) ++summary.scored;  // for `sample`, a record is done once it has values
     else ++summary.not_scored[g.status[i].empty() ? reason::no_values : g.status[i].front()];
@@ -191,6 +199,7 @@ RunSummary run_screen(const ScreenOptions& o) {
     });
 
   RunSummary summary;
+  summary.warnings = g.warnings;
   CsvWriter out(o.out);
   out.row(output_header(g, added));
   for (std::size_t i : rows) {
@@ -205,6 +214,7 @@ RunSummary run_screen(const ScreenOptions& o) {
       if (g.status[i].empty()) g.status[i].push_back(reason::no_values);
       ++summary.not_scored[g.status[i].front()];
     }
+    for (const auto& c : g.status[i]) ++summary.codes[c];
     auto row = output_row(g, i);
     row.push_back(rank[i] ? std::to_string(rank[i]) : "");
     row.push_back(v.score ? format_score(*v.score) : "");

@@ -33,6 +33,7 @@ struct SampleOptions {
   std::string out;
   std::size_t cache_megabytes = 256;
   DiscOptions discs;
+  std::string assume_crs;  // CRS for layers that have none (else they are refused)
 };
 
 // The label's elevation against the DEM.
@@ -67,7 +68,10 @@ struct RunSummary {
   std::size_t scored = 0;
   std::size_t flagged = 0;
   std::map<std::string, std::size_t> not_scored;  // by first reason code
-  std::string line() const;  // one line for stderr
+  std::map<std::string, std::size_t> codes;       // every reason code, over all records
+  std::vector<std::string> warnings;              // e.g. a layer no record falls on
+  std::string line() const;                       // one line for stderr
+  std::string codes_line() const;                 // one line: every code and its count
 };
 
 RunSummary run_sample(const SampleOptions& options);

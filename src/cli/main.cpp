@@ -1,11 +1,13 @@
 // envsift: screen species occurrence records against environmental rasters.
 #include <cpl_error.h>
+#include <csignal>
 #include <cstring>
 #include <iostream>
 #include <string>
 
 #include "commands.hpp"
 #include "envsift/errors.hpp"
+#include "envsift/write/csv_writer.hpp"
 
 namespace {
 
@@ -19,7 +21,8 @@ const char* kUsage =
     "  screen   sample, test each record against its taxon, and rank suspects for review\n"
     "\n"
     "Flags are reasons to look, not proof of error: review flagged records before removing any.\n"
-    "exit codes: 0 ok, 2 bad command line, 3 bad input, 4 output not written, 5 internal error\n";
+    "exit codes: 0 ok, 2 bad command line, 3 bad input, 4 output not written, 5 internal error,\n"
+    "            130/143 interrupted (SIGINT/SIGTERM; no partial output is left)\n";
 
 void quiet_gdal_handler(CPLErr, CPLErrorNum, const char*) {}  // envsift reports errors itself
 
@@ -28,6 +31,9 @@ void quiet_gdal_handler(CPLErr, CPLErrorNum, const char*) {}  // envsift reports
 int main(int argc, char** argv) {
   using envsift::ExitCode;
   CPLSetErrorHandler(quiet_gdal_handler);
+  envsift::remove_partial_outputs_on_signal();
+  std::signal(SIGXFSZ, SIG_IGN);  // a file-size limit then fails the write (exit 4) instead of killing us
+  std::signal(SIGPIPE, SIG_IGN);
   if (argc < 2 || !std::strcmp(argv[1], "--help") || !std::strcmp(argv[1], "-h") || !std::strcmp(argv[1], "help")) {
     std::cout << kUsage;
     return argc < 2 ? static_cast<int>(ExitCode::usage) : 0;

@@ -39,6 +39,8 @@ void add_sampling_options(po::options_description& d, SampleOptions& o, bool lay
     ("max-uncertainty", po::value(&o.discs.max_radius_m)->default_value(o.discs.max_radius_m)->value_name("M"),
      "larger uncertainty discs are cut to M metres (cost grows with the disc's area); such records say so "
      "(uncertainty_capped)")
+    ("assume-crs", po::value(&o.assume_crs)->value_name("CRS"),
+     "CRS for layers that have none, e.g. EPSG:4326 (without it such layers are refused)")
     ("no-discs", po::bool_switch(), "ignore coordinate uncertainty: sample and judge each record at its point only")
     ("threads", po::value<int>()->value_name("N"), "threads to use (default: all cores); results do not depend on it")
     ("block-cache-mb", po::value(&o.cache_megabytes)->default_value(o.cache_megabytes)->value_name("MB"),

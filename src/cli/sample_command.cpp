@@ -17,7 +17,8 @@ int sample_command(int argc, char** argv) {
   if (!parse(argc, argv, "sample", "--points FILE --layers RASTER... --out FILE.csv [options]", d, vm)) return 0;
   finish_sampling_options(vm, o);
   const RunSummary summary = run_sample(o);
-  std::cerr << summary.line() << "\nenvsift: wrote " << o.out << "\n";
+  for (const auto& w : summary.warnings) std::cerr << "envsift: warning: " << w << "\n";
+  std::cerr << summary.codes_line() << "\n" << summary.line() << "\nenvsift: wrote " << o.out << "\n";
   return 0;
 }
 

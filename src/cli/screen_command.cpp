@@ -89,7 +89,8 @@ int screen_command(int argc, char** argv) {
   if (min_records < 3) throw UsageError("--min-records must be at least 3");
   if (!(o.elevation.tolerance_m > 0)) throw UsageError("--elevation-tolerance must be a positive number of metres");
   const RunSummary summary = run_screen(o);
-  std::cerr << summary.line() << "\nenvsift: wrote " << o.out << " (flags are for review, not automatic removal)\n";
+  for (const auto& w : summary.warnings) std::cerr << "envsift: warning: " << w << "\n";
+  std::cerr << summary.codes_line() << "\n" << summary.line() << "\nenvsift: wrote " << o.out << " (flags are for review, not automatic removal)\n";
   return 0;
 }
 

@@ -4,6 +4,7 @@
 #include <cctype>
 #include <charconv>
 #include <cmath>
+#include <filesystem>
 #include <fstream>
 #include <memory>
 #include <optional>
@@ -115,6 +116,9 @@ void parse_record(Occurrence& r, const ColumnIndex& ix, std::size_t column_count
 }
 
 PointTable read_delimited(const std::string& path, const ReaderOptions& o) {
+  std::error_code ec;
+  if (std::filesystem::exists(path, ec) && !std::filesystem::is_regular_file(path, ec))
+    throw InputError(path, "is not a file (a directory?)", "give the path of the points file itself");
   std::ifstream in(path, std::ios::binary);
   if (!in) throw InputError(path, "cannot open the points file", "check the path and its read permission");
   char delimiter = o.delimiter;

@@ -38,7 +38,7 @@ int decimals_of(double x) {
   return 12;
 }
 
-LayerInfo describe_layer(const LayerSpec& spec) {
+LayerInfo describe_layer(const LayerSpec& spec, const std::string& assume_crs) {
   auto ds = open_raster(spec.path);
   LayerInfo info;
   info.spec = spec;
@@ -54,9 +54,15 @@ LayerInfo describe_layer(const LayerSpec& spec) {
     throw InputError(spec.path, "has a rotated geotransform, which envsift does not sample",
                      "warp it to a north-up grid first, e.g. gdalwarp in.tif out.tif");
   const OGRSpatialReference* srs = ds->GetSpatialRef();
-  if (!srs || srs->IsEmpty())
-    throw InputError(spec.path, "has no coordinate reference system",
-                     "assign one, e.g. gdal_edit.py -a_srs EPSG:4326 FILE");
+  OGRSpatialReference assumed;
+  if (!srs || srs->IsEmpty()) {
+    if (assume_crs.empty())
+      throw InputError(spec.path, "has no coordinate reference system",
+                       "assign one (gdal_edit.py -a_srs EPSG:4326 FILE), or run with --assume-crs EPSG:4326");
+    if (assumed.SetFromUserInput(assume_crs.c_str()) != OGRERR_NONE)
+      throw UsageError("--assume-crs '" + assume_crs + "' is not a CRS GDAL knows; write e.g. EPSG:4326");
+    srs = &assumed;
+  }
   char* wkt = nullptr;
   srs->exportToWkt(&wkt, nullptr);
   info.crs_wkt = wkt ? wkt : "";
@@ -114,9 +120,9 @@ std::vector<LayerSpec> expand_layer_arguments(const std::vector<std::string>& ar
   return specs;
 }
 
-RasterStack::RasterStack(std::vector<LayerSpec> specs, std::size_t cache_bytes)
+RasterStack::RasterStack(std::vector<LayerSpec> specs, std::size_t cache_bytes, const std::string& assume_crs)
     : cache_(cache_bytes), impl_(std::make_unique<Impl>()) {
-  for (const auto& s : specs) layers_.push_back(describe_layer(s));
+  for (const auto& s : specs) layers_.push_back(describe_layer(s, assume_crs));
 }
 
 RasterStack::~RasterStack() = default;

@@ -65,8 +65,10 @@ struct DiscSamples {
 class RasterStack {
  public:
   // Opens and checks every layer. Throws InputError for a file that is not a readable raster,
-  // has no georeferencing or CRS, or has a rotated geotransform.
-  explicit RasterStack(std::vector<LayerSpec> specs, std::size_t cache_bytes = std::size_t(256) << 20);
+  // has no georeferencing, has a rotated geotransform, or has no CRS (unless `assume_crs`, e.g.
+  // "EPSG:4326", is given for such layers).
+  explicit RasterStack(std::vector<LayerSpec> specs, std::size_t cache_bytes = std::size_t(256) << 20,
+                       const std::string& assume_crs = "");
   ~RasterStack();
   RasterStack(const RasterStack&) = delete;
   RasterStack& operator=(const RasterStack&) = delete;

@@ -22,7 +22,12 @@ class CsvWriter {
   std::string path_, temp_path_;
   std::FILE* file_ = nullptr;
   std::string buffer_;
+  int slot_ = -1;  // in the signal handler's list of partial outputs
 };
+
+// On SIGINT, SIGTERM or SIGHUP, removes every output still being written (its temporary file),
+// then lets the signal end the process as it would have. Call once, early in main().
+void remove_partial_outputs_on_signal();
 
 // RFC 4180: a field is quoted when it holds a comma, quote, CR or LF, or starts/ends with a space.
 void append_csv_field(std::string& out, const std::string& field);
