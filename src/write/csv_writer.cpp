@@ -42,7 +42,8 @@ extern "C" void on_signal(int signal) {
 }  // namespace
 
 void remove_partial_outputs_on_signal() {
-  for (int s : {SIGINT, SIGTERM, SIGHUP}) std::signal(s, on_signal);
+  for (int s : {SIGINT, SIGTERM, SIGHUP})
+    if (std::signal(s, on_signal) == SIG_IGN) std::signal(s, SIG_IGN);  // keep what nohup & co. ignore
 }
 
 void append_csv_field(std::string& out, const std::string& field) {
