@@ -115,12 +115,7 @@ void parse_record(Occurrence& r, const ColumnIndex& ix, std::size_t column_count
   }
 }
 
-PointTable read_delimited(const std::string& path, const ReaderOptions& o) {
-  std::error_code ec;
-  if (std::filesystem::exists(path, ec) && !std::filesystem::is_regular_file(path, ec))
-    throw InputError(path, "is not a file (a directory?)", "give the path of the points file itself");
-  std::ifstream in(path, std::ios::binary);
-  if (!in) throw InputError(path, "cannot open the points file", "check the path and its read permission");
+PointTable read_delimited(std::istream& in, const std::string& path, const ReaderOptions& o) {
   char delimiter = o.delimiter;
   if (!delimiter) {
     auto ext = extension(path);
@@ -236,7 +231,21 @@ PointTable read_vector(const std::string& path, const ReaderOptions& o) {
   return table;
 }
 
+void mark_duplicate_ids(PointTable& t) {
+  std::unordered_map<std::string, std::size_t> seen;
+  for (const auto& r : t.records)
+    if (!r.id.empty()) ++seen[r.id];
+  for (auto& r : t.records)
+    if (!r.id.empty() && seen[r.id] > 1) r.problems.push_back(reason::duplicate_id);
+}
+
 }  // namespace
+
+PointTable read_points_from_text(std::istream& in, const std::string& source_name, const ReaderOptions& options) {
+  PointTable t = read_delimited(in, source_name, options);
+  mark_duplicate_ids(t);
+  return t;
+}
 
 bool is_delimited_text(const std::string& path) {
   auto ext = extension(path);
@@ -244,14 +253,17 @@ bool is_delimited_text(const std::string& path) {
 }
 
 PointTable read_points(const std::string& path, const ReaderOptions& options) {
-  PointTable t = is_delimited_text(path) ? read_delimited(path, options) : read_vector(path, options);
-  // Duplicate IDs: every record sharing an ID is kept and marked.
-  std::unordered_map<std::string, std::size_t> seen;
-  for (const auto& r : t.records)
-    if (!r.id.empty()) ++seen[r.id];
-  for (auto& r : t.records)
-    if (!r.id.empty() && seen[r.id] > 1) r.problems.push_back(reason::duplicate_id);
-  return t;
+  if (!is_delimited_text(path)) {
+    PointTable t = read_vector(path, options);
+    mark_duplicate_ids(t);  // every record sharing an ID is kept and marked
+    return t;
+  }
+  std::error_code ec;
+  if (std::filesystem::exists(path, ec) && !std::filesystem::is_regular_file(path, ec))
+    throw InputError(path, "is not a file (a directory?)", "give the path of the points file itself");
+  std::ifstream in(path, std::ios::binary);
+  if (!in) throw InputError(path, "cannot open the points file", "check the path and its read permission");
+  return read_points_from_text(in, path, options);
 }
 
 }  // namespace envsift

@@ -1,6 +1,7 @@
 // Step 1 of the pipeline: read occurrence records from delimited text (CSV/TSV) or from any
 // vector source GDAL/OGR can open (GeoPackage, GeoJSON, Shapefile, ...).
 #pragma once
+#include <istream>
 #include <string>
 
 #include "envsift/occurrence.hpp"
@@ -32,6 +33,10 @@ struct ReaderOptions {
 // WGS 84 longitude/latitude) and two columns decimalLongitude/decimalLatitude are appended to
 // `columns` when the source has no such fields.
 PointTable read_points(const std::string& path, const ReaderOptions& options);
+
+// Delimited text from a stream (what read_points does for a .csv/.tsv file); `source_name` is
+// used in error messages and to pick the delimiter by extension.
+PointTable read_points_from_text(std::istream& in, const std::string& source_name, const ReaderOptions& options);
 
 // True when the path is read as delimited text rather than through OGR.
 bool is_delimited_text(const std::string& path);
