@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 #include <cstring>
+#include <tuple>
 
 #include "envsift/errors.hpp"
 #include "envsift/read/coordinates.hpp"
@@ -64,7 +65,7 @@ Gathered sample_rasters(const SampleOptions& o, const std::vector<std::string>& 
   g.status.resize(n);
   g.notes.resize(n);
   for (std::size_t i = 0; i < n; ++i) {
-    g.status[i] = g.table.records[i].problems;
+    g.status[i] = g.table.problems(i);
     for (std::size_t l = 0; l < g.layer_names.size(); ++l) {
       const CellStatus c = samples.status_at(i, l);
       if (c == CellStatus::outside) g.status[i].push_back(reason::on_layer(reason::outside_layer, g.layer_names[l]));
@@ -136,13 +137,16 @@ Gathered read_value_columns(const ScreenOptions& o, const std::vector<std::strin
   g.status.resize(n);
   g.notes.resize(n);
   g.radius_m.assign(n, 0.0);
+  std::vector<std::string> fields;
   for (std::size_t i = 0; i < n; ++i) {
-    const Occurrence& r = g.table.records[i];
-    for (const auto& p : r.problems)
-      if (p == reason::ragged_row || p == reason::uncertainty_not_numeric) g.status[i].push_back(p);
+    g.table.fields.read(i, fields);
+    for (const auto& p : g.table.problems(i))
+      if (p == reason::ragged_row || p == reason::uncertainty_not_numeric || p == reason::latin1_converted ||
+          p == reason::duplicate_id)
+        g.status[i].push_back(p);
     std::uint64_t key = 0xcbf29ce484222325ull;  // FNV-1a over the values' bits: equal values, equal key
     for (std::size_t l = 0; l < index.size(); ++l) {
-      const ParsedNumber v = parse_number(r.fields[index[l]]);
+      const ParsedNumber v = parse_number(fields[index[l]]);
       if (v.problem.empty()) {
         g.values(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(l)) = v.value;
         std::uint64_t bits;
@@ -161,14 +165,19 @@ Gathered read_value_columns(const ScreenOptions& o, const std::vector<std::strin
 
 std::vector<ReportedElevation> reported_elevations(Gathered& g, const ColumnNames& columns) {
   std::vector<ReportedElevation> out(g.table.records.size());
-  std::vector<std::pair<std::string, std::optional<double> ReportedElevation::*>> wanted{
-      {columns.min_elevation, &ReportedElevation::min_m}, {columns.max_elevation, &ReportedElevation::max_m}};
-  for (const auto& [name, member] : wanted) {
+  std::vector<std::tuple<std::string, std::optional<double> ReportedElevation::*, std::size_t>> wanted;
+  for (const auto& [name, member] : {std::pair{columns.min_elevation, &ReportedElevation::min_m},
+                                     std::pair{columns.max_elevation, &ReportedElevation::max_m}}) {
     auto it = std::find(g.table.columns.begin(), g.table.columns.end(), name);
-    if (name.empty() || it == g.table.columns.end()) continue;
-    const auto col = static_cast<std::size_t>(it - g.table.columns.begin());
-    for (std::size_t i = 0; i < out.size(); ++i) {
-      const ParsedElevation e = parse_elevation(g.table.records[i].fields[col]);
+    if (!name.empty() && it != g.table.columns.end())
+      wanted.emplace_back(name, member, static_cast<std::size_t>(it - g.table.columns.begin()));
+  }
+  if (wanted.empty()) return out;
+  std::vector<std::string> fields;
+  for (std::size_t i = 0; i < out.size(); ++i) {
+    g.table.fields.read(i, fields);
+    for (const auto& [name, member, col] : wanted) {
+      const ParsedElevation e = parse_elevation(fields[col]);
       if (!e.problem.empty()) add_code(g.status[i], reason::on_layer(e.problem, name));
       else if (e.present) out[i].*member = e.metres;
     }

@@ -49,7 +49,7 @@ std::vector<std::string> output_header(const Gathered& g, const std::vector<std:
 
 // Original fields, then (when sampled) each layer's value and disc, then the status.
 std::vector<std::string> output_row(const Gathered& g, std::size_t i) {
-  std::vector<std::string> row = g.table.records[i].fields;
+  std::vector<std::string> row = g.table.fields.read(i);
   const auto r = static_cast<Eigen::Index>(i);
   if (!g.layers_are_columns)
     for (std::size_t l = 0; l < g.layer_names.size(); ++l) {
@@ -157,7 +157,7 @@ RunSummary run_screen(const ScreenOptions& o) {
   std::vector<std::string> taxa(n);
   std::vector<bool> eligible(n);
   for (std::size_t i = 0; i < n; ++i) {
-    taxa[i] = o.single_taxon ? std::string("*") : g.table.records[i].taxon;
+    taxa[i] = o.single_taxon ? std::string("*") : g.table.taxon(i);
     if (taxa[i].empty() && g.table.records[i].has_coordinates()) g.status[i].push_back(reason::taxon_missing);
     eligible[i] = !taxa[i].empty() && has_any_value(g.values, i);
   }

@@ -1,23 +1,26 @@
-// One occurrence record as read from the input, and the table of them.
+// One occurrence record as read from the input, and the table of them. A table of millions of
+// records stays small: each record holds only its parsed values and small indices; taxon names
+// and sets of reason codes are stored once, and the original text lives in a FieldStore on disk.
 #pragma once
 #include <cmath>
 #include <cstddef>
+#include <cstdint>
 #include <optional>
 #include <string>
 #include <vector>
 
+#include "envsift/read/field_store.hpp"
+
 namespace envsift {
 
-// A record keeps its original fields verbatim; the parsed values are what envsift works with.
 struct Occurrence {
   std::size_t line = 0;             // line (CSV) or feature number (vector) where the record starts
-  std::vector<std::string> fields;  // original columns, in input order, untouched
-  std::string id;
-  std::string taxon;
+  std::uint32_t taxon = 0;          // index into PointTable::taxa (0: no taxon)
+  std::uint32_t problems = 0;       // index into PointTable::problem_sets (0: none)
   double longitude = std::nan("");
   double latitude = std::nan("");
   std::optional<double> uncertainty_m;
-  std::vector<std::string> problems;  // reason codes found while reading (see reason_codes.hpp)
+  std::uint64_t id_hash = 0;        // of the record's ID (0: none), to find duplicates
 
   bool has_coordinates() const { return std::isfinite(longitude) && std::isfinite(latitude); }
 };
@@ -26,7 +29,13 @@ struct PointTable {
   std::string source;                // path it was read from
   std::vector<std::string> columns;  // original column names, in order
   std::vector<Occurrence> records;   // in input order
-  std::optional<std::size_t> uncertainty_column;  // index in `columns`, when the file has one
+  FieldStore fields;                 // original fields of each record, untouched (padded if ragged)
+  std::vector<std::string> taxa{""};                   // taxon names, each once
+  std::vector<std::vector<std::string>> problem_sets{{}};  // reason codes found while reading
+  std::optional<std::size_t> uncertainty_column;       // index in `columns`, when the file has one
+
+  const std::string& taxon(std::size_t i) const { return taxa[records[i].taxon]; }
+  const std::vector<std::string>& problems(std::size_t i) const { return problem_sets[records[i].problems]; }
 };
 
 }  // namespace envsift

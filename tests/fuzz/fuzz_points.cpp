@@ -23,9 +23,10 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
     std::istringstream in(text);
     try {
       const envsift::PointTable t = envsift::read_points_from_text(in, name, options);
-      for (const auto& r : t.records) {
-        if (r.fields.size() != t.columns.size()) __builtin_trap();  // columns must stay aligned
-        for (const auto& f : r.fields) envsift::parse_elevation(f);
+      for (std::size_t i = 0; i < t.records.size(); ++i) {
+        const auto fields = t.fields.read(i);
+        if (fields.size() != t.columns.size()) __builtin_trap();  // columns must stay aligned
+        for (const auto& f : fields) envsift::parse_elevation(f);
       }
     } catch (const envsift::InputError&) {
       // a clean refusal: fine

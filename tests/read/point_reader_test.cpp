@@ -27,10 +27,12 @@ TEST(PointReader, CsvKeepsEveryColumnAndParsesDarwinCoreFields) {
   PointTable t = read_points(dir + "/p.csv", {});
   ASSERT_EQ(t.records.size(), 3u);
   EXPECT_EQ(t.columns.size(), 6u);
-  EXPECT_EQ(t.records[1].fields[5], "with, comma");
-  EXPECT_EQ(t.records[2].fields[5], "two\nlines");
-  EXPECT_EQ(t.records[0].id, "A1");
-  EXPECT_EQ(t.records[2].taxon, "Beta two");
+  EXPECT_EQ(t.fields.read(1)[5], "with, comma");
+  EXPECT_EQ(t.fields.read(2)[5], "two\nlines");
+  EXPECT_EQ(t.fields.read(0)[0], "A1");
+  EXPECT_NE(t.records[0].id_hash, 0u);
+  EXPECT_EQ(t.taxon(2), "Beta two");
+  EXPECT_EQ(t.taxa.size(), 3u);  // "", Alpha one, Beta two: each name stored once
   EXPECT_DOUBLE_EQ(t.records[1].longitude, -179.999);
   EXPECT_DOUBLE_EQ(t.records[0].latitude, -3.25);
   EXPECT_EQ(*t.records[0].uncertainty_m, 100);
@@ -53,11 +55,11 @@ TEST(PointReader, BomCrlfAndTsvGiveTheSameRecords) {
   ASSERT_EQ(a.records.size(), 3u);
   EXPECT_EQ(a.columns[0], "occurrenceID");
   EXPECT_EQ(a.columns.back(), "note");
-  EXPECT_EQ(a.records[2].fields[5], "two\r\nlines");  // inside quotes, bytes are data
+  EXPECT_EQ(a.fields.read(2)[5], "two\r\nlines");  // inside quotes, bytes are data
   EXPECT_DOUBLE_EQ(a.records[0].longitude, 12.5);
   PointTable b = read_points(dir + "/p.tsv", {});
   ASSERT_EQ(b.records.size(), 1u);
-  EXPECT_EQ(b.records[0].taxon, "Alpha one");
+  EXPECT_EQ(b.taxon(0), "Alpha one");
 }
 
 TEST(PointReader, BadCoordinatesAreKeptWithReasonCodes) {
@@ -78,7 +80,7 @@ TEST(PointReader, BadCoordinatesAreKeptWithReasonCodes) {
   const std::vector<std::vector<std::string>> expected = {
       {"coord_missing"}, {"coord_not_numeric"}, {"coord_not_finite"}, {"coord_not_finite"}, {"coord_not_finite"},
       {"coord_out_of_range"}, {"coord_out_of_range", "coord_possibly_swapped"}, {}, {"ragged_row", "coord_missing"}};
-  for (std::size_t i = 0; i < expected.size(); ++i) EXPECT_EQ(t.records[i].problems, expected[i]) << "row " << i;
+  for (std::size_t i = 0; i < expected.size(); ++i) EXPECT_EQ(t.problems(i), expected[i]) << "row " << i;
   EXPECT_DOUBLE_EQ(t.records[7].longitude, 1.5);
   EXPECT_DOUBLE_EQ(t.records[7].latitude, 2);
   EXPECT_FALSE(t.records[0].has_coordinates());
@@ -137,11 +139,11 @@ TEST(PointReader, VectorSourcesMatchTheCsvTheyWereMadeFrom) {
     const PointTable t = read_points(dir + "/" + name, {});
     ASSERT_EQ(t.records.size(), csv.records.size());
     for (std::size_t i = 0; i < t.records.size(); ++i) {
-      EXPECT_EQ(t.records[i].id, csv.records[i].id);
-      EXPECT_EQ(t.records[i].taxon, csv.records[i].taxon);
+      EXPECT_EQ(t.records[i].id_hash, csv.records[i].id_hash);
+      EXPECT_EQ(t.taxon(i), csv.taxon(i));
       EXPECT_NEAR(t.records[i].longitude, csv.records[i].longitude, 1e-9);
       EXPECT_NEAR(t.records[i].latitude, csv.records[i].latitude, 1e-9);
-      EXPECT_TRUE(t.records[i].problems.empty());
+      EXPECT_TRUE(t.problems(i).empty());
     }
     // every original attribute is carried, geometry-derived coordinates appended as columns
     EXPECT_NE(std::find(t.columns.begin(), t.columns.end(), "note"), t.columns.end());

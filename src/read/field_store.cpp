@@ -1,0 +1,124 @@
+#include "envsift/read/field_store.hpp"
+
+#include <cerrno>
+#include <cstdlib>
+#include <cstring>
+#include <stdexcept>
+#include <unistd.h>
+
+#include "envsift/errors.hpp"
+
+namespace envsift {
+namespace {
+
+constexpr std::size_t kChunk = 1 << 20;
+
+void put_length(std::string& out, std::uint64_t n) {  // LEB128
+  do {
+    unsigned char b = n & 0x7F;
+    n >>= 7;
+    out += static_cast<char>(n ? b | 0x80 : b);
+  } while (n);
+}
+
+std::uint64_t get_length(const std::string& in, std::size_t& at) {
+  std::uint64_t n = 0;
+  for (int shift = 0;; shift += 7) {
+    const auto b = static_cast<unsigned char>(in.at(at++));
+    n |= static_cast<std::uint64_t>(b & 0x7F) << shift;
+    if (!(b & 0x80)) return n;
+  }
+}
+
+std::string temp_dir() {
+  const char* t = std::getenv("TMPDIR");
+  return t && *t ? t : "/tmp";
+}
+
+}  // namespace
+
+FieldStore::FieldStore() {
+  std::string path = temp_dir() + "/envsift-fields-XXXXXX";
+  fd_ = ::mkstemp(path.data());
+  if (fd_ < 0) throw OutputError(path, std::string("cannot create a temporary file (") + std::strerror(errno) + "); set TMPDIR to a writable directory");
+  ::unlink(path.c_str());  // gone when the process ends, however it ends
+}
+
+FieldStore::~FieldStore() {
+  if (fd_ >= 0) ::close(fd_);
+}
+
+FieldStore::FieldStore(FieldStore&& o) noexcept { *this = std::move(o); }
+
+FieldStore& FieldStore::operator=(FieldStore&& o) noexcept {
+  if (this != &o) {
+    if (fd_ >= 0) ::close(fd_);
+    fd_ = o.fd_;
+    o.fd_ = -1;
+    offsets_ = std::move(o.offsets_);
+    end_ = o.end_;
+    pending_ = std::move(o.pending_);
+    buffer_ = std::move(o.buffer_);
+    buffer_at_ = o.buffer_at_;
+  }
+  return *this;
+}
+
+void FieldStore::append(const std::vector<std::string>& fields) {
+  offsets_.push_back(end_ + pending_.size());
+  put_length(pending_, fields.size());
+  for (const auto& f : fields) {
+    put_length(pending_, f.size());
+    pending_ += f;
+  }
+  if (pending_.size() >= kChunk) {
+    if (::pwrite(fd_, pending_.data(), pending_.size(), static_cast<off_t>(end_)) != static_cast<ssize_t>(pending_.size()))
+      throw OutputError("$TMPDIR", std::string("cannot write the temporary copy of the records (") + std::strerror(errno) + ")");
+    end_ += pending_.size();
+    pending_.clear();
+  }
+}
+
+// Makes buffer_ hold [at, at + length).
+void FieldStore::fill(std::uint64_t at, std::size_t length) const {
+  if (at >= buffer_at_ && at + length <= buffer_at_ + buffer_.size()) return;
+  buffer_.resize(std::max(kChunk, length));
+  std::size_t got = 0;
+  while (got < buffer_.size() && at + got < end_) {
+    const ssize_t n = ::pread(fd_, buffer_.data() + got, buffer_.size() - got, static_cast<off_t>(at + got));
+    if (n <= 0) throw std::runtime_error(std::string("cannot read the temporary copy of the records: ") + std::strerror(errno));
+    got += static_cast<std::size_t>(n);
+  }
+  buffer_.resize(got);
+  buffer_at_ = at;
+}
+
+void FieldStore::read(std::size_t i, std::vector<std::string>& fields) const {
+  const std::uint64_t start = offsets_.at(i);
+  const std::uint64_t stop = i + 1 < offsets_.size() ? offsets_[i + 1] : end_ + pending_.size();
+  const std::size_t length = static_cast<std::size_t>(stop - start);
+  const std::string* source;
+  std::size_t at;
+  if (start >= end_) {  // still in memory
+    source = &pending_;
+    at = static_cast<std::size_t>(start - end_);
+  } else {
+    fill(start, length);
+    source = &buffer_;
+    at = static_cast<std::size_t>(start - buffer_at_);
+  }
+  fields.resize(static_cast<std::size_t>(get_length(*source, at)));
+  for (auto& f : fields) {
+    const auto n = static_cast<std::size_t>(get_length(*source, at));
+    f.assign(*source, at, n);
+    at += n;
+  }
+}
+
+std::vector<std::string> FieldStore::read(std::size_t i) const {
+  std::vector<std::string> fields;
+  read(i, fields);
+  return fields;
+}
+
+}  // namespace envsift
