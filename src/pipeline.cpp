@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 #include <memory>
+#include <mutex>
 #include <numeric>
 
 #include "envsift/detect/reverse_jackknife.hpp"
@@ -136,11 +137,28 @@ RunSummary run_sample(const SampleOptions& o) {
   return summary;
 }
 
+// The columns envsift appends after `status` for one record: rank is filled in at the end, the
+// rest comes from its verdict and findings.
+std::vector<std::string> verdict_columns(const Verdict& v, const std::vector<const Finding*>& findings,
+                                         const std::vector<std::size_t>& extra_counts) {
+  std::vector<std::string> out{v.score ? format_score(*v.score) : "", join(v.flags, ";"), join(v.reasons, "; ")};
+  for (std::size_t t = 0; t < findings.size(); ++t) {
+    const Finding& f = *findings[t];
+    out.push_back(f.tested ? format_statistic(f.statistic) : "");
+    out.push_back(f.tested ? format_statistic(f.threshold) : "");
+    for (std::size_t e = 0; e < extra_counts[t]; ++e)
+      out.push_back(f.tested && e < f.extras.size() ? format_statistic(f.extras[e]) : "");
+  }
+  return out;
+}
+
 RunSummary run_screen(const ScreenOptions& o) {
   const auto detectors = make_detectors(o);
   std::vector<std::string> names;
-  for (const auto& d : detectors) names.push_back(d->name());
+  std::vector<std::size_t> extra_counts;
+  for (const auto& d : detectors) names.push_back(d->name()), extra_counts.push_back(d->extra_columns().size());
   const bool check_elevation = !o.elevation.dem_layer.empty();
+  if (check_elevation) names.push_back(kElevationCheck), extra_counts.push_back(0);
   std::vector<std::string> added{"status", "rank", "score", "flags", "reasons"};
   for (const auto& d : detectors) {
     added.push_back(d->name() + "_stat");
@@ -154,42 +172,95 @@ RunSummary run_screen(const ScreenOptions& o) {
   Gathered g = o.value_columns.empty() ? detail::sample_rasters(o, added) : detail::read_value_columns(o, added);
   const std::size_t n = g.table.records.size();
 
-  std::vector<std::string> taxa(n);
+  // Taxa: the reader's interned names, or one group for --single-taxon.
+  std::vector<std::uint32_t> taxon_of(n);
+  const std::vector<std::string> single{"", "*"};
+  const std::vector<std::string>& taxon_names = o.single_taxon ? single : g.table.taxa;
   std::vector<bool> eligible(n);
   for (std::size_t i = 0; i < n; ++i) {
-    taxa[i] = o.single_taxon ? std::string("*") : g.table.taxon(i);
-    if (taxa[i].empty() && g.table.records[i].has_coordinates()) g.status[i].push_back(reason::taxon_missing);
-    eligible[i] = !taxa[i].empty() && has_any_value(g.values, i);
+    taxon_of[i] = o.single_taxon ? 1u : g.table.records[i].taxon;
+    if (taxon_of[i] == 0 && g.table.records[i].has_coordinates()) g.status[i].push_back(reason::taxon_missing);
+    eligible[i] = taxon_of[i] != 0 && has_any_value(g.values, i);
   }
-  ScreeningInput input{g.values, g.cells, taxa, eligible, g.layer_names};
-  if (g.has_discs) input.lower = &g.discs.min, input.upper = &g.discs.max;
-  ScreeningResult screened = screen_taxa(input, detectors, o.distinct_cells, o.seed);
 
   // The reported elevation is checked for every record with coordinates, taxon or not.
-  std::vector<Finding> elevation(n);
   std::vector<DemRange> dem;
+  std::vector<ReportedElevation> reported;
+  std::vector<double> dem_low, dem_high, dem_point;
   if (check_elevation) {
     const auto it = std::find(g.layer_names.begin(), g.layer_names.end(), o.elevation.dem_layer);
     if (it == g.layer_names.end())
       throw UsageError("--dem " + o.elevation.dem_layer + " is not one of the layers (" + join(g.layer_names, ", ") + ")");
-    dem = dem_ranges(g, static_cast<std::size_t>(it - g.layer_names.begin()));
-    const auto reported = detail::reported_elevations(g, o.reader.columns);
-    for (std::size_t i = 0; i < n; ++i)
-      elevation[i] = check_reported_elevation(reported[i], dem[i], o.elevation.tolerance_m, o.elevation.dem_layer);
+    const auto column = static_cast<std::size_t>(it - g.layer_names.begin());
+    dem = dem_ranges(g, column);
+    reported = detail::reported_elevations(g, o.reader.columns);
+    for (std::size_t i = 0; i < n; ++i) {
+      dem_low.push_back(dem[i].low);
+      dem_high.push_back(dem[i].high);
+      dem_point.push_back(g.values(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(column)));
+    }
   }
+  auto elevation_of = [&](std::size_t i) {
+    return check_elevation ? check_reported_elevation(reported[i], dem[i], o.elevation.tolerance_m, o.elevation.dem_layer)
+                           : Finding{};
+  };
+  const ElevationBand band{&dem_low, &dem_high, &dem_point, o.robust_z.cutoff};
 
-  std::vector<std::string> verdict_names = names;
-  if (check_elevation) verdict_names.push_back(kElevationCheck);
-  std::vector<Verdict> verdicts(n);
+  // Each taxon's verdicts go straight to disk as the envsift columns of its records; kept in
+  // memory per record are only the score (for the ranking) and where its columns are.
+  FieldStore results;
+  std::mutex results_lock;
+  constexpr std::uint64_t kNone = ~std::uint64_t(0);
+  std::vector<std::uint64_t> result_of(n, kNone);
   std::vector<std::optional<double>> scores(n);
-  for (std::size_t i = 0; i < n; ++i) {
-    std::vector<const Finding*> per_test;
-    for (const auto& f : screened.findings) per_test.push_back(&f[i]);
-    if (check_elevation) per_test.push_back(&elevation[i]);
-    verdicts[i] = combine(per_test, verdict_names);
-    for (const auto& note : g.notes[i]) verdicts[i].reasons.push_back(note);
-    scores[i] = verdicts[i].score;
-  }
+  std::vector<std::vector<std::string>> untested(n);
+  std::vector<std::vector<std::string>> summary_rows;
+  auto judge_record = [&](std::size_t i, std::vector<const Finding*> per_test, std::vector<std::string>& columns) {
+    const Finding elevation = elevation_of(i);
+    if (check_elevation) per_test.push_back(&elevation);
+    Verdict v = combine(per_test, names);
+    for (const auto& note : g.notes[i]) v.reasons.push_back(note);
+    // rank by the score as written, so that merged shards rank exactly as a single run
+    if (v.score) scores[i] = std::stod(format_score(*v.score));
+    columns = verdict_columns(v, per_test, extra_counts);
+    return v;
+  };
+  const auto taxa = screen_taxa(
+      {g.values, g.cells, taxon_of, taxon_names, eligible, g.layer_names, g.has_discs ? &g.discs.min : nullptr,
+       g.has_discs ? &g.discs.max : nullptr},
+      detectors, o.distinct_cells, o.seed, [&](const ScreenedTaxon& taxon, std::vector<std::vector<Finding>>& findings) {
+        std::vector<Verdict> verdicts;
+        std::vector<std::string> columns;
+        for (std::size_t r = 0; r < taxon.records.size(); ++r) {
+          const std::size_t i = taxon.records[r];
+          std::vector<const Finding*> per_test;
+          for (const auto& f : findings) per_test.push_back(&f[r]);
+          verdicts.push_back(judge_record(i, per_test, columns));
+          for (const auto& u : verdicts.back().untested)
+            if (!u.empty()) untested[i].push_back(u);
+          std::lock_guard<std::mutex> lock(results_lock);
+          results.append(columns);
+          result_of[i] = results.size() - 1;
+        }
+        if (!o.summary.empty()) {
+          auto row = taxon_summary_row(taxon, verdicts, names, check_elevation ? &band : nullptr);
+          std::lock_guard<std::mutex> lock(results_lock);
+          if (summary_rows.size() <= taxon.index) summary_rows.resize(taxon.index + 1);
+          summary_rows[taxon.index] = std::move(row);
+        }
+      });
+  // Records outside every taxon: only the elevation check can judge them.
+  const std::vector<Finding> none(detectors.size());
+  std::vector<const Finding*> no_findings;
+  for (const auto& f : none) no_findings.push_back(&f);
+  std::vector<std::string> columns;
+  for (std::size_t i = 0; i < n; ++i)
+    if (result_of[i] == kNone) {
+      judge_record(i, no_findings, columns);
+      results.append(columns);
+      result_of[i] = results.size() - 1;
+    }
+
   const auto rank = rank_by_score(scores);
   std::vector<std::size_t> rows(n);
   std::iota(rows.begin(), rows.end(), 0);
@@ -202,14 +273,15 @@ RunSummary run_screen(const ScreenOptions& o) {
   summary.warnings = g.warnings;
   CsvWriter out(o.out);
   out.row(output_header(g, added));
+  std::vector<std::string> verdict;
   for (std::size_t i : rows) {
-    const Verdict& v = verdicts[i];
-    for (const auto& u : v.untested)
-      if (eligible[i] && !u.empty()) add_code(g.status[i], u);
+    if (eligible[i])
+      for (const auto& u : untested[i]) add_code(g.status[i], u);
     ++summary.read;
-    if (v.score) {
+    results.read(result_of[i], verdict);
+    if (scores[i]) {
       ++summary.scored;
-      if (!v.flags.empty()) ++summary.flagged;
+      if (!verdict[1].empty()) ++summary.flagged;
     } else {
       if (g.status[i].empty()) g.status[i].push_back(reason::no_values);
       ++summary.not_scored[g.status[i].front()];
@@ -217,36 +289,15 @@ RunSummary run_screen(const ScreenOptions& o) {
     for (const auto& c : g.status[i]) ++summary.codes[c];
     auto row = output_row(g, i);
     row.push_back(rank[i] ? std::to_string(rank[i]) : "");
-    row.push_back(v.score ? format_score(*v.score) : "");
-    row.push_back(join(v.flags, ";"));
-    row.push_back(join(v.reasons, "; "));
-    for (std::size_t t = 0; t < detectors.size(); ++t) {
-      const Finding& f = screened.findings[t][i];
-      row.push_back(f.tested ? format_statistic(f.statistic) : "");
-      row.push_back(f.tested ? format_statistic(f.threshold) : "");
-      for (std::size_t e = 0; e < detectors[t]->extra_columns().size(); ++e)
-        row.push_back(f.tested && e < f.extras.size() ? format_statistic(f.extras[e]) : "");
-    }
-    if (check_elevation) {
-      row.push_back(elevation[i].tested ? format_statistic(elevation[i].statistic) : "");
-      row.push_back(elevation[i].tested ? format_statistic(elevation[i].threshold) : "");
-    }
+    row.insert(row.end(), verdict.begin(), verdict.end());
     out.row(row);
   }
 
   if (!o.summary.empty()) {
-    ElevationBand band;
-    if (check_elevation) {
-      const auto c = static_cast<Eigen::Index>(std::find(g.layer_names.begin(), g.layer_names.end(), o.elevation.dem_layer) -
-                                               g.layer_names.begin());
-      for (std::size_t i = 0; i < n; ++i) {
-        band.dem_low.push_back(dem[i].low);
-        band.dem_high.push_back(dem[i].high);
-        band.dem_point.push_back(g.values(static_cast<Eigen::Index>(i), c));
-      }
-      band.z_cutoff = o.robust_z.cutoff;
-    }
-    write_taxon_summary(o.summary, screened, verdicts, verdict_names, check_elevation ? &band : nullptr);
+    CsvWriter table(o.summary);
+    table.row(taxon_summary_header(names, check_elevation));
+    for (const auto& t : taxa) table.row(summary_rows.at(t.index));
+    table.commit();
   }
   out.commit();
   return summary;

@@ -1,16 +1,28 @@
 #include "envsift/group/taxon_groups.hpp"
 
-#include <map>
+#include <algorithm>
+#include <numeric>
 
 namespace envsift {
 
-std::vector<TaxonGroup> group_by_taxon(const std::vector<std::string>& taxa, const std::vector<bool>& eligible) {
-  std::map<std::string, std::vector<std::size_t>> by_name;
-  for (std::size_t i = 0; i < taxa.size(); ++i)
-    if (eligible[i]) by_name[taxa[i]].push_back(i);
+std::vector<TaxonGroup> group_by_taxon(const std::vector<std::uint32_t>& taxon_of, const std::vector<std::string>& names,
+                                       const std::vector<bool>& eligible) {
+  std::vector<std::size_t> size(names.size(), 0);
+  for (std::size_t i = 0; i < taxon_of.size(); ++i)
+    if (eligible[i]) ++size[taxon_of[i]];
+  std::vector<std::uint32_t> by_name(names.size());
+  std::iota(by_name.begin(), by_name.end(), 0u);
+  std::sort(by_name.begin(), by_name.end(), [&](std::uint32_t a, std::uint32_t b) { return names[a] < names[b]; });
+  std::vector<std::size_t> group_of(names.size(), static_cast<std::size_t>(-1));
   std::vector<TaxonGroup> groups;
-  groups.reserve(by_name.size());
-  for (auto& [name, records] : by_name) groups.push_back({name, std::move(records)});
+  for (std::uint32_t t : by_name)
+    if (size[t]) {
+      group_of[t] = groups.size();
+      groups.push_back({names[t], {}});
+      groups.back().records.reserve(size[t]);
+    }
+  for (std::size_t i = 0; i < taxon_of.size(); ++i)
+    if (eligible[i]) groups[group_of[taxon_of[i]]].records.push_back(i);
   return groups;
 }
 

@@ -60,6 +60,7 @@ FieldStore& FieldStore::operator=(FieldStore&& o) noexcept {
     pending_ = std::move(o.pending_);
     buffer_ = std::move(o.buffer_);
     buffer_at_ = o.buffer_at_;
+    last_read_ = o.last_read_;
   }
   return *this;
 }
@@ -79,10 +80,11 @@ void FieldStore::append(const std::vector<std::string>& fields) {
   }
 }
 
-// Makes buffer_ hold [at, at + length).
-void FieldStore::fill(std::uint64_t at, std::size_t length) const {
+// Makes buffer_ hold [at, at + length): a large chunk when reading in order, only what is asked
+// for when jumping around (e.g. writing rows in rank order).
+void FieldStore::fill(std::uint64_t at, std::size_t length, bool in_order) const {
   if (at >= buffer_at_ && at + length <= buffer_at_ + buffer_.size()) return;
-  buffer_.resize(std::max(kChunk, length));
+  buffer_.resize(in_order ? std::max(kChunk, length) : length);
   std::size_t got = 0;
   while (got < buffer_.size() && at + got < end_) {
     const ssize_t n = ::pread(fd_, buffer_.data() + got, buffer_.size() - got, static_cast<off_t>(at + got));
@@ -103,10 +105,11 @@ void FieldStore::read(std::size_t i, std::vector<std::string>& fields) const {
     source = &pending_;
     at = static_cast<std::size_t>(start - end_);
   } else {
-    fill(start, length);
+    fill(start, length, i == last_read_ + 1);
     source = &buffer_;
     at = static_cast<std::size_t>(start - buffer_at_);
   }
+  last_read_ = i;
   fields.resize(static_cast<std::size_t>(get_length(*source, at)));
   for (auto& f : fields) {
     const auto n = static_cast<std::size_t>(get_length(*source, at));

@@ -1,6 +1,7 @@
 #include "envsift/score/screen_taxa.hpp"
 
 #include <algorithm>
+#include <exception>
 #include <numeric>
 #include <unordered_set>
 
@@ -17,28 +18,28 @@ std::uint64_t stable_hash(const std::string& text, std::uint64_t basis) {
   return h;
 }
 
-ScreeningResult screen_taxa(const ScreeningInput& in, const std::vector<std::unique_ptr<Detector>>& detectors,
-                            bool distinct_cells, std::uint64_t seed) {
-  const std::size_t n = in.taxa.size();
+std::vector<ScreenedTaxon> screen_taxa(const ScreeningInput& in, const std::vector<std::unique_ptr<Detector>>& detectors,
+                                       bool distinct_cells, std::uint64_t seed, const TaxonSink& sink) {
   const auto L = in.values.cols();
-  ScreeningResult result;
-  result.findings.assign(detectors.size(), std::vector<Finding>(n));
-  const auto groups = group_by_taxon(in.taxa, in.eligible);
-  result.taxa.resize(groups.size());
+  const auto groups = group_by_taxon(in.taxon_of, in.taxon_names, in.eligible);
+  std::vector<ScreenedTaxon> result(groups.size());
   std::vector<std::size_t> order(groups.size());
   std::iota(order.begin(), order.end(), 0);
   std::stable_sort(order.begin(), order.end(),
                    [&](std::size_t a, std::size_t b) { return groups[a].records.size() > groups[b].records.size(); });
+  std::vector<std::exception_ptr> errors(groups.size());
 #pragma omp parallel for schedule(dynamic, 1)
   for (std::ptrdiff_t k = 0; k < static_cast<std::ptrdiff_t>(order.size()); ++k) {
-    const std::size_t index = order[static_cast<std::size_t>(k)];
+   const std::size_t index = order[static_cast<std::size_t>(k)];
+   try {
     const TaxonGroup& g = groups[index];
     const auto rows = static_cast<Eigen::Index>(g.records.size());
     Eigen::MatrixXd records(rows, L), lower, upper;
     if (in.lower) lower.resize(rows, L), upper.resize(rows, L);
     std::vector<Eigen::Index> reference_rows;
     std::unordered_set<std::uint64_t> seen;
-    ScreenedTaxon& screened = result.taxa[index];
+    ScreenedTaxon& screened = result[index];
+    screened.index = index;
     screened.taxon = g.taxon;
     screened.records = g.records;
     for (Eigen::Index r = 0; r < rows; ++r) {
@@ -55,11 +56,15 @@ ScreeningResult screen_taxa(const ScreeningInput& in, const std::vector<std::uni
 
     const TaxonValues taxon{reference, records, in.layer_names, stable_hash(g.taxon, seed ^ 0xcbf29ce484222325ull),
                             in.lower ? &lower : nullptr, in.upper ? &upper : nullptr};
-    for (std::size_t t = 0; t < detectors.size(); ++t) {
-      std::vector<Finding> f = detectors[t]->judge(taxon);
-      for (std::size_t r = 0; r < g.records.size(); ++r) result.findings[t][g.records[r]] = std::move(f[r]);
-    }
+    std::vector<std::vector<Finding>> findings;
+    for (const auto& d : detectors) findings.push_back(d->judge(taxon));
+    sink(screened, findings);
+   } catch (...) {
+    errors[index] = std::current_exception();
+   }
   }
+  for (auto& e : errors)
+    if (e) std::rethrow_exception(e);  // the first taxon's, by name: the same for any thread count
   return result;
 }
 

@@ -27,7 +27,7 @@ class FieldStore {
   std::uint64_t bytes() const { return end_; }
 
  private:
-  void fill(std::uint64_t at, std::size_t length) const;
+  void fill(std::uint64_t at, std::size_t length, bool in_order) const;
 
   int fd_ = -1;
   std::vector<std::uint64_t> offsets_;
@@ -35,6 +35,7 @@ class FieldStore {
   std::string pending_;                  // appended, not yet written
   mutable std::string buffer_;           // read buffer
   mutable std::uint64_t buffer_at_ = 0;  // file offset of buffer_[0]
+  mutable std::size_t last_read_ = static_cast<std::size_t>(-2);
 };
 
 }  // namespace envsift

@@ -2,6 +2,7 @@
 // largest taxa first).
 #pragma once
 #include <cstdint>
+#include <functional>
 #include <memory>
 #include <string>
 #include <vector>
@@ -15,7 +16,8 @@ namespace envsift {
 struct ScreeningInput {
   const Eigen::MatrixXd& values;            // records × layers, NaN = missing
   const std::vector<std::uint64_t>& cells;  // per record: equal keys = same raster cells
-  const std::vector<std::string>& taxa;     // per record
+  const std::vector<std::uint32_t>& taxon_of;  // per record: index into `taxon_names`
+  const std::vector<std::string>& taxon_names;
   const std::vector<bool>& eligible;        // records to judge
   const std::vector<std::string>& layer_names;
   const Eigen::MatrixXd* lower = nullptr;  // uncertainty discs (see TaxonValues)
@@ -23,22 +25,24 @@ struct ScreeningInput {
 };
 
 struct ScreenedTaxon {
+  std::size_t index = 0;               // position among the taxa, sorted by name
   std::string taxon;
   std::vector<std::size_t> records;    // ascending
   std::vector<std::size_t> reference;  // the records its statistics were estimated from
 };
 
-struct ScreeningResult {
-  std::vector<ScreenedTaxon> taxa;             // sorted by name
-  std::vector<std::vector<Finding>> findings;  // [test][record]; untested for records not eligible
-};
+// Receives each taxon's findings as soon as they are known — `findings[t][r]` is test t's
+// finding for the taxon's r-th record — so that nothing per record and test need be kept for the
+// whole file. Called from several threads at once: it must be thread-safe.
+using TaxonSink = std::function<void(const ScreenedTaxon&, std::vector<std::vector<Finding>>&)>;
 
 // distinct_cells: each taxon's statistics are estimated from one row per distinct cell key, so
 // that many records in one cell neither zero the spread nor hide an outlier; every record is
 // still judged. seed: randomised tests get a seed derived from it and the taxon's name, so a
 // taxon's result depends on neither thread count nor which other taxa are in the file.
-ScreeningResult screen_taxa(const ScreeningInput& input, const std::vector<std::unique_ptr<Detector>>& detectors,
-                            bool distinct_cells, std::uint64_t seed);
+// Returns the taxa, sorted by name (records and reference rows filled in).
+std::vector<ScreenedTaxon> screen_taxa(const ScreeningInput& input, const std::vector<std::unique_ptr<Detector>>& detectors,
+                                       bool distinct_cells, std::uint64_t seed, const TaxonSink& sink);
 
 // A 64-bit FNV-1a hash: stable across machines, compilers and runs.
 std::uint64_t stable_hash(const std::string& text, std::uint64_t basis = 0xcbf29ce484222325ull);

@@ -5,19 +5,22 @@
 #include <string>
 #include <vector>
 
-#include "envsift/detect/detector.hpp"
 #include "envsift/score/screen_taxa.hpp"
 #include "envsift/score/scoring.hpp"
 
 namespace envsift {
 
 struct ElevationBand {
-  std::vector<double> dem_low, dem_high;  // per record: the DEM's range (disc, or point)
-  std::vector<double> dem_point;          // per record: the DEM at the point
-  double z_cutoff = 3;                    // band = median ± z_cutoff · robust spread
+  const std::vector<double>* dem_low;    // per record: the DEM's range (disc, or point)
+  const std::vector<double>* dem_high;
+  const std::vector<double>* dem_point;  // per record: the DEM at the point
+  double z_cutoff = 3;                   // band = median ± z_cutoff · robust spread
 };
 
-void write_taxon_summary(const std::string& path, const ScreeningResult& screened, const std::vector<Verdict>& verdicts,
-                         const std::vector<std::string>& test_names, const ElevationBand* band);
+std::vector<std::string> taxon_summary_header(const std::vector<std::string>& test_names, bool with_band);
+
+// `verdicts[r]`: the verdict on the taxon's r-th record.
+std::vector<std::string> taxon_summary_row(const ScreenedTaxon& taxon, const std::vector<Verdict>& verdicts,
+                                           const std::vector<std::string>& test_names, const ElevationBand* band);
 
 }  // namespace envsift
