@@ -34,7 +34,8 @@ void add_code(std::vector<std::string>& codes, const std::string& code) {
   if (std::find(codes.begin(), codes.end(), code) == codes.end()) codes.push_back(code);
 }
 
-Gathered sample_rasters(const SampleOptions& o, const std::vector<std::string>& added_columns) {
+Gathered sample_rasters(const SampleOptions& o, const std::vector<std::string>& added_columns,
+                        const std::function<bool(const PointTable&, std::size_t)>& keep) {
   Gathered g;
   auto specs = expand_layer_arguments(o.layers);
   g.table = read_points(o.points, o.reader);
@@ -52,9 +53,11 @@ Gathered sample_rasters(const SampleOptions& o, const std::vector<std::string>& 
   RasterStack stack(specs, o.cache_megabytes << 20, o.assume_crs);
   std::vector<double> lon(n), lat(n);
   for (std::size_t i = 0; i < n; ++i) {
-    lon[i] = g.table.records[i].longitude;
-    lat[i] = g.table.records[i].latitude;
+    const bool kept = !keep || keep(g.table, i);
+    lon[i] = kept ? g.table.records[i].longitude : std::nan("");
+    lat[i] = kept ? g.table.records[i].latitude : std::nan("");
   }
+  stack.set_chunk_records(o.chunk_records);
   Samples samples = stack.sample(lon, lat, o.method);
   g.values = std::move(samples.values);
   g.cells = std::move(samples.cell);
@@ -74,10 +77,11 @@ Gathered sample_rasters(const SampleOptions& o, const std::vector<std::string>& 
   }
   // A layer that no record falls on is almost always a CRS or extent mistake: say so.
   std::size_t with_coordinates = 0;
-  for (const auto& r : g.table.records) with_coordinates += r.has_coordinates();
+  for (std::size_t i = 0; i < n; ++i) with_coordinates += std::isfinite(lon[i]) && std::isfinite(lat[i]);
   for (std::size_t l = 0; l < g.layer_names.size() && with_coordinates > 0; ++l) {
     std::size_t inside = 0;
-    for (std::size_t i = 0; i < n; ++i) inside += samples.status_at(i, l) != CellStatus::outside && g.table.records[i].has_coordinates();
+    for (std::size_t i = 0; i < n; ++i)
+      inside += samples.status_at(i, l) != CellStatus::outside && std::isfinite(lon[i]) && std::isfinite(lat[i]);
     if (inside == 0)
       g.warnings.push_back("layer " + g.layer_names[l] + " (" + specs[l].path +
                            "): no record falls inside it; check its extent and CRS, and the records' coordinates");
@@ -85,7 +89,7 @@ Gathered sample_rasters(const SampleOptions& o, const std::vector<std::string>& 
   // A record that no layer has a value for, but would with latitude and longitude swapped.
   std::vector<std::size_t> lost;
   for (std::size_t i = 0; i < n; ++i)
-    if (g.table.records[i].has_coordinates() && !g.values.row(static_cast<Eigen::Index>(i)).array().isFinite().any() &&
+    if (std::isfinite(lon[i]) && std::isfinite(lat[i]) && !g.values.row(static_cast<Eigen::Index>(i)).array().isFinite().any() &&
         std::fabs(lat[i]) <= 180 && std::fabs(lon[i]) <= 90)
       lost.push_back(i);
   if (!lost.empty()) {

@@ -2,6 +2,7 @@
 // uncertainty discs) or read from the input's own columns — plus reason codes per record.
 #pragma once
 #include <cstdint>
+#include <functional>
 #include <string>
 #include <vector>
 
@@ -28,7 +29,9 @@ struct Gathered {
 };
 
 // `added_columns`: what the caller will append, checked against the input's and layers' names.
-Gathered sample_rasters(const SampleOptions& o, const std::vector<std::string>& added_columns);
+// `keep` (when given) chooses the records to sample; the others get no values (shards).
+Gathered sample_rasters(const SampleOptions& o, const std::vector<std::string>& added_columns,
+                        const std::function<bool(const PointTable&, std::size_t)>& keep = nullptr);
 Gathered read_value_columns(const ScreenOptions& o, const std::vector<std::string>& added_columns);
 
 // Reported elevations of every record (problems go to `status`).

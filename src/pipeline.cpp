@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 #include <memory>
+#include <fstream>
 #include <mutex>
 #include <numeric>
 
@@ -13,6 +14,7 @@
 #include "envsift/reason_codes.hpp"
 #include "envsift/score/scoring.hpp"
 #include "envsift/score/screen_taxa.hpp"
+#include "envsift/read/csv_reader.hpp"
 #include "envsift/write/csv_writer.hpp"
 #include "envsift/write/taxon_summary.hpp"
 #include "envsift/write/value_format.hpp"
@@ -113,6 +115,10 @@ std::string RunSummary::line() const {
   return s;
 }
 
+std::size_t shard_of(const std::string& taxon, std::size_t shard_count) {
+  return static_cast<std::size_t>(stable_hash(taxon) % shard_count);
+}
+
 std::string RunSummary::codes_line() const {
   std::vector<std::string> parts;
   for (const auto& [code, count] : codes) parts.push_back(code + " " + std::to_string(count));
@@ -169,8 +175,19 @@ RunSummary run_screen(const ScreenOptions& o) {
     for (const char* c : {"_stat", "_cutoff"}) added.push_back(kElevationCheck + c);
   if (check_elevation && !o.value_columns.empty())
     throw UsageError("--dem needs --layers: the elevation check compares with a sampled DEM");
-  Gathered g = o.value_columns.empty() ? detail::sample_rasters(o, added) : detail::read_value_columns(o, added);
+  if (o.shard_count > 1 && o.order == RowOrder::rank)
+    throw UsageError("--shard writes rows in input order (envsift merge ranks them); drop --order rank");
+  const std::string single_name = "*";
+  auto owned = [&](const PointTable& t, std::size_t i) {
+    return o.shard_count <= 1 || shard_of(o.single_taxon ? single_name : t.taxon(i), o.shard_count) == o.shard_index;
+  };
+  Gathered g = o.value_columns.empty() ? detail::sample_rasters(o, added, owned) : detail::read_value_columns(o, added);
   const std::size_t n = g.table.records.size();
+  std::vector<bool> mine(n);
+  for (std::size_t i = 0; i < n; ++i) {
+    mine[i] = owned(g.table, i);
+    if (!mine[i]) g.status[i] = {reason::other_shard};
+  }
 
   // Taxa: the reader's interned names, or one group for --single-taxon.
   std::vector<std::uint32_t> taxon_of(n);
@@ -179,8 +196,8 @@ RunSummary run_screen(const ScreenOptions& o) {
   std::vector<bool> eligible(n);
   for (std::size_t i = 0; i < n; ++i) {
     taxon_of[i] = o.single_taxon ? 1u : g.table.records[i].taxon;
-    if (taxon_of[i] == 0 && g.table.records[i].has_coordinates()) g.status[i].push_back(reason::taxon_missing);
-    eligible[i] = taxon_of[i] != 0 && has_any_value(g.values, i);
+    if (taxon_of[i] == 0 && g.table.records[i].has_coordinates() && mine[i]) g.status[i].push_back(reason::taxon_missing);
+    eligible[i] = mine[i] && taxon_of[i] != 0 && has_any_value(g.values, i);
   }
 
   // The reported elevation is checked for every record with coordinates, taxon or not.
@@ -201,7 +218,7 @@ RunSummary run_screen(const ScreenOptions& o) {
     }
   }
   auto elevation_of = [&](std::size_t i) {
-    return check_elevation ? check_reported_elevation(reported[i], dem[i], o.elevation.tolerance_m, o.elevation.dem_layer)
+    return check_elevation && mine[i] ? check_reported_elevation(reported[i], dem[i], o.elevation.tolerance_m, o.elevation.dem_layer)
                            : Finding{};
   };
   const ElevationBand band{&dem_low, &dem_high, &dem_point, o.robust_z.cutoff};
@@ -298,6 +315,83 @@ RunSummary run_screen(const ScreenOptions& o) {
     table.row(taxon_summary_header(names, check_elevation));
     for (const auto& t : taxa) table.row(summary_rows.at(t.index));
     table.commit();
+  }
+  out.commit();
+  return summary;
+}
+
+RunSummary merge_shards(const std::vector<std::string>& paths, const std::string& out_path) {
+  if (paths.empty()) throw UsageError("merge needs the shard outputs");
+  struct Shard {
+    std::ifstream in;
+    std::unique_ptr<CsvReader> reader;
+  };
+  std::vector<Shard> shards(paths.size());
+  std::vector<std::string> header;
+  auto open_all = [&]() {
+    for (std::size_t s = 0; s < paths.size(); ++s) {
+      shards[s].in = std::ifstream(paths[s], std::ios::binary);
+      if (!shards[s].in) throw InputError(paths[s], "cannot open the shard output", "check the path");
+      shards[s].reader = std::make_unique<CsvReader>(shards[s].in, ',', paths[s]);
+      std::vector<std::string> h;
+      std::size_t line;
+      if (!shards[s].reader->next(h, line)) throw InputError(paths[s], 1, "the file is empty", "give the outputs of envsift screen --shard");
+      if (s == 0) header = h;
+      else if (h != header)
+        throw InputError(paths[s], 1, "its columns differ from " + paths[0] + "'s", "merge the shards of one run only");
+    }
+  };
+  auto column = [&](const std::string& name) {
+    auto it = std::find(header.begin(), header.end(), name);
+    if (it == header.end())
+      throw InputError(paths[0], 1, "no '" + name + "' column: not an envsift screen output", "merge screen outputs");
+    return static_cast<std::size_t>(it - header.begin());
+  };
+  // Each row comes from the one shard that owns it; the others mark it other_shard.
+  auto next_rows = [&](std::vector<std::string>& picked, std::size_t row_number, std::size_t status) {
+    std::vector<std::string> fields;
+    std::size_t line = 0, owners = 0, ended = 0;
+    for (std::size_t s = 0; s < shards.size(); ++s) {
+      if (!shards[s].reader->next(fields, line)) {
+        ++ended;
+        continue;
+      }
+      if (fields.size() != header.size())
+        throw InputError(paths[s], line, "row has " + std::to_string(fields.size()) + " fields, the header " +
+                                             std::to_string(header.size()), "merge unmodified shard outputs");
+      if (fields[status] != reason::other_shard) {
+        ++owners;
+        picked = fields;
+      }
+    }
+    if (ended == shards.size()) return false;
+    if (ended || owners != 1)
+      throw InputError(paths[0], row_number + 1,
+                       ended ? "the shard outputs have different numbers of rows"
+                             : std::to_string(owners) + " shards claim this row",
+                       "merge all shards 0..N-1 of one run, each once");
+    return true;
+  };
+
+  open_all();
+  const std::size_t status = column("status"), rank = column("rank"), score = column("score"), flags = column("flags");
+  // Pass 1: every row's score, to rank them as one run would.
+  std::vector<std::optional<double>> scores;
+  std::vector<std::string> row;
+  while (next_rows(row, scores.size() + 1, status))
+    scores.push_back(row[score].empty() ? std::nullopt : std::optional<double>(std::stod(row[score])));
+  const auto ranks = rank_by_score(scores);
+  // Pass 2: the rows again, with their rank.
+  open_all();
+  RunSummary summary;
+  CsvWriter out(out_path);
+  out.row(header);
+  for (std::size_t i = 0; next_rows(row, i + 1, status); ++i) {
+    row[rank] = ranks[i] ? std::to_string(ranks[i]) : "";
+    ++summary.read;
+    if (scores[i]) ++summary.scored;
+    if (!row[flags].empty()) ++summary.flagged;
+    out.row(row);
   }
   out.commit();
   return summary;

@@ -34,6 +34,7 @@ struct SampleOptions {
   std::size_t cache_megabytes = 256;
   DiscOptions discs;
   std::string assume_crs;  // CRS for layers that have none (else they are refused)
+  std::size_t chunk_records = static_cast<std::size_t>(-1);  // sample this many records at a time
 };
 
 // The label's elevation against the DEM.
@@ -60,7 +61,15 @@ struct ScreenOptions : SampleOptions {
   RowOrder order = RowOrder::input;
   ElevationOptions elevation;
   std::string summary;                     // per-taxon summary CSV; empty = none
+  // Taxon shards for clusters: screen only the taxa whose stable hash modulo `shard_count` is
+  // `shard_index`; every other record is written with status `other_shard`. `envsift merge`
+  // combines the shards' outputs into exactly what one run writes.
+  std::size_t shard_index = 0, shard_count = 1;
 };
+
+// The shard that owns a taxon (records without a taxon: the shard of the empty name).
+std::size_t shard_of(const std::string& taxon, std::size_t shard_count);
+
 
 // Where the records went: every record read is counted once as scored or as not scorable.
 struct RunSummary {
@@ -75,6 +84,10 @@ struct RunSummary {
 };
 
 RunSummary run_sample(const SampleOptions& options);
+
+// Combines the outputs of shards 0..N-1 of one screen (any order) into `out`, re-ranking.
+// Throws InputError when the files are not shards of the same run.
+RunSummary merge_shards(const std::vector<std::string>& shard_outputs, const std::string& out);
 RunSummary run_screen(const ScreenOptions& options);
 
 }  // namespace envsift

@@ -49,16 +49,20 @@ void add_sampling_options(po::options_description& d, SampleOptions& o, bool lay
 }
 
 bool parse(int argc, char** argv, const std::string& command, const std::string& synopsis,
-           const po::options_description& options, po::variables_map& vm) {
+           const po::options_description& options, po::variables_map& vm,
+           const po::positional_options_description* positional, const po::options_description* visible) {
   for (int i = 0; i < argc; ++i) {
     const std::string a = argv[i];
     if (a == "--help" || a == "-h") {
-      std::cout << "usage: envsift " << command << " " << synopsis << "\n\n" << options << "\n";
+      std::cout << "usage: envsift " << command << " " << synopsis << "\n\n" << (visible ? *visible : options) << "\n";
       return false;
     }
   }
   try {
-    po::store(po::command_line_parser(argc, argv).options(options).run(), vm);
+    po::command_line_parser parser(argc, argv);
+    parser.options(options);
+    if (positional) parser.positional(*positional);
+    po::store(parser.run(), vm);
     po::notify(vm);
   } catch (const po::error& e) {
     throw UsageError(std::string(e.what()) + "; see 'envsift " + command + " --help'");

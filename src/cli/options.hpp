@@ -14,8 +14,12 @@ namespace po = boost::program_options;
 void add_sampling_options(po::options_description& d, SampleOptions& o, bool layers_required = true);
 
 // Parses argv; returns false after printing help. Throws UsageError on bad options.
+// `positional`: positional arguments, if the command takes any; `visible`: what --help shows
+// (default: all options).
 bool parse(int argc, char** argv, const std::string& command, const std::string& synopsis,
-           const po::options_description& options, po::variables_map& vm);
+           const po::options_description& options, po::variables_map& vm,
+           const po::positional_options_description* positional = nullptr,
+           const po::options_description* visible = nullptr);
 
 // Applies the parsed values that need checking or conversion (method, delimiter, threads).
 void finish_sampling_options(const po::variables_map& vm, SampleOptions& o);

@@ -67,6 +67,10 @@ int screen_command(int argc, char** argv) {
     ("summary", po::value(&o.summary)->value_name("FILE.csv"),
      "also write one row per taxon: records, judged, flagged per test and, with --dem, the taxon's robust "
      "elevation band (median ± z-cutoff robust SD over distinct cells) and the records outside it")
+    ("shard", po::value<std::string>()->value_name("I/N"),
+     "screen only the taxa of shard I of N (0-based; taxa split by a stable hash of their name, the same on "
+     "every machine); other records are written with status other_shard. Run I = 0..N-1, then "
+     "'envsift merge' the outputs: the result equals one run's, byte for byte")
     ("order", po::value<std::string>()->default_value("input")->value_name("input|rank"),
      "row order of the output: input order, or by rank (unscored records last)");
   po::variables_map vm;
@@ -87,6 +91,19 @@ int screen_command(int argc, char** argv) {
   if (!(o.robust_z.cutoff > 0)) throw UsageError("--z-cutoff must be a positive number");
   if (!(o.mahalanobis.quantile > 0 && o.mahalanobis.quantile < 1)) throw UsageError("--chi2-quantile must be between 0 and 1");
   if (min_records < 3) throw UsageError("--min-records must be at least 3");
+  if (vm.count("shard")) {
+    const std::string text = vm["shard"].as<std::string>();
+    const auto slash = text.find('/');
+    try {
+      if (slash == std::string::npos) throw std::invalid_argument(text);
+      o.shard_index = std::stoul(text.substr(0, slash));
+      o.shard_count = std::stoul(text.substr(slash + 1));
+    } catch (const std::exception&) {
+      throw UsageError("--shard must be I/N, e.g. 0/8, not '" + text + "'");
+    }
+    if (o.shard_count < 1 || o.shard_index >= o.shard_count)
+      throw UsageError("--shard I/N needs 0 <= I < N, not '" + text + "'");
+  }
   if (!(o.elevation.tolerance_m > 0)) throw UsageError("--elevation-tolerance must be a positive number of metres");
   const RunSummary summary = run_screen(o);
   for (const auto& w : summary.warnings) std::cerr << "envsift: warning: " << w << "\n";

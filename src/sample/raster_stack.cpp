@@ -136,33 +136,41 @@ Samples RasterStack::sample(const std::vector<double>& longitude, const std::vec
                                          std::numeric_limits<double>::quiet_NaN());
   out.status.assign(n * L, CellStatus::no_point);
   out.cell.assign(n, 0);
-  std::vector<std::uint64_t> cell_index(n * L, 0);  // 1 + row * width + col; 0 = none
   impl_->handles.reset(L);
 
-  for (std::size_t l = 0; l < L; ++l) {
+  // Records in chunks (all at once by default) so that the working set stays bounded; within a
+  // chunk, layer by layer, points in block order.
+  for (std::size_t begin = 0; begin < n; begin += chunk_records_) {
+   const std::size_t end = std::min(n, begin + chunk_records_);
+   for (std::size_t l = 0; l < L; ++l) {
     detail::LayerAccess layer(layers_[l], l, cache_, impl_->handles);
     const LayerInfo& info = layer.info();
 
     // 1. Into the layer's CRS.
-    std::vector<double> x(longitude), y(latitude);
+    std::vector<double> x(longitude.begin() + static_cast<std::ptrdiff_t>(begin), longitude.begin() + static_cast<std::ptrdiff_t>(end));
+    std::vector<double> y(latitude.begin() + static_cast<std::ptrdiff_t>(begin), latitude.begin() + static_cast<std::ptrdiff_t>(end));
     layer.to_layer(x, y);
 
-    // 2. Cell of each point; points ordered by block so every block is visited once.
+    // 2. Cell of each point; points ordered by block so every block is visited once. Each
+    // record's cell key mixes in its cell on every layer, in layer order.
     std::vector<Location> located;
-    located.reserve(n);
+    located.reserve(end - begin);
     const std::uint64_t blocks_across = (info.width + info.block_width - 1) / info.block_width;
-    for (std::size_t i = 0; i < n; ++i) {
-      if (!std::isfinite(longitude[i]) || !std::isfinite(latitude[i])) continue;
+    for (std::size_t i = begin; i < end; ++i) {
+      std::uint64_t cell = 0;  // 1 + row * width + col; 0 = none
       double px, py;
-      if (!layer.pixel(x[i], y[i], px, py)) {
+      if (!std::isfinite(longitude[i]) || !std::isfinite(latitude[i])) {
+        // no point: status stays no_point
+      } else if (!layer.pixel(x[i - begin], y[i - begin], px, py)) {
         out.status[i * L + l] = CellStatus::outside;
-        continue;
+      } else {
+        const int col = static_cast<int>(std::floor(px)), row = static_cast<int>(std::floor(py));
+        const std::uint64_t block = static_cast<std::uint64_t>(row / info.block_height) * blocks_across +
+                                    static_cast<std::uint64_t>(col / info.block_width);
+        located.push_back({static_cast<std::uint32_t>(i), col, row, px, py, block});
+        cell = 1 + static_cast<std::uint64_t>(row) * info.width + col;
       }
-      const int col = static_cast<int>(std::floor(px)), row = static_cast<int>(std::floor(py));
-      const std::uint64_t block = static_cast<std::uint64_t>(row / info.block_height) * blocks_across +
-                                  static_cast<std::uint64_t>(col / info.block_width);
-      located.push_back({static_cast<std::uint32_t>(i), col, row, px, py, block});
-      cell_index[i * L + l] = 1 + static_cast<std::uint64_t>(row) * info.width + col;
+      out.cell[i] = mix(out.cell[i], cell);
     }
     std::stable_sort(located.begin(), located.end(),
                      [](const Location& a, const Location& b) { return a.block < b.block; });
@@ -214,12 +222,7 @@ Samples RasterStack::sample(const std::vector<double>& longitude, const std::vec
     }
     for (auto& e : errors)
       if (e) std::rethrow_exception(e);  // the first failing block, whatever the thread count
-  }
-
-  for (std::size_t i = 0; i < n; ++i) {
-    std::uint64_t h = 0;
-    for (std::size_t l = 0; l < L; ++l) h = mix(h, cell_index[i * L + l]);
-    out.cell[i] = h;
+   }
   }
   return out;
 }

@@ -87,8 +87,11 @@ class RasterStack {
                            const std::vector<double>& radius_m);
 
   const BlockCache& cache() const { return cache_; }
+  // Sample at most this many records at a time (bounds memory; results do not change).
+  void set_chunk_records(std::size_t records) { chunk_records_ = records ? records : 1; }
 
  private:
+  std::size_t chunk_records_ = static_cast<std::size_t>(-1);
   struct Impl;
   std::vector<LayerInfo> layers_;
   BlockCache cache_;
