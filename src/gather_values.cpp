@@ -50,6 +50,13 @@ Gathered sample_rasters(const SampleOptions& o, const std::vector<std::string>& 
   columns.insert(columns.end(), added_columns.begin(), added_columns.end());
   check_unique_columns(columns);
 
+  // What stays in memory per record: its parsed values and indices (~100 bytes), and a double per
+  // layer for the value (and three more per layer with discs).
+  const double need_mb = n * (100.0 + 8.0 * specs.size() * (g.has_discs ? 4 : 1)) / (1 << 20) + o.cache_megabytes;
+  if (need_mb > o.memory_limit_mb)
+    g.warnings.push_back("these " + std::to_string(n) + " records and " + std::to_string(specs.size()) + " layers need about " +
+                         std::to_string(static_cast<long>(need_mb)) + " MB, more than --memory-limit " +
+                         std::to_string(o.memory_limit_mb) + " MB; split the run with --shard I/N");
   RasterStack stack(specs, o.cache_megabytes << 20, o.assume_crs);
   std::vector<double> lon(n), lat(n);
   for (std::size_t i = 0; i < n; ++i) {
@@ -58,6 +65,7 @@ Gathered sample_rasters(const SampleOptions& o, const std::vector<std::string>& 
     lat[i] = kept ? g.table.records[i].latitude : std::nan("");
   }
   stack.set_chunk_records(o.chunk_records);
+  stack.set_progress(o.progress);
   Samples samples = stack.sample(lon, lat, o.method);
   g.values = std::move(samples.values);
   g.cells = std::move(samples.cell);

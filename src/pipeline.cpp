@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 #include <memory>
+#include <chrono>
 #include <fstream>
 #include <mutex>
 #include <numeric>
@@ -181,7 +182,15 @@ RunSummary run_screen(const ScreenOptions& o) {
   auto owned = [&](const PointTable& t, std::size_t i) {
     return o.shard_count <= 1 || shard_of(o.single_taxon ? single_name : t.taxon(i), o.shard_count) == o.shard_index;
   };
+  auto clock = std::chrono::steady_clock::now();
+  RunSummary summary;
+  auto lap = [&](const std::string& stage) {
+    const auto now = std::chrono::steady_clock::now();
+    summary.seconds.emplace_back(stage, std::chrono::duration<double>(now - clock).count());
+    clock = now;
+  };
   Gathered g = o.value_columns.empty() ? detail::sample_rasters(o, added, owned) : detail::read_value_columns(o, added);
+  lap("read and sample");
   const std::size_t n = g.table.records.size();
   std::vector<bool> mine(n);
   for (std::size_t i = 0; i < n; ++i) {
@@ -242,6 +251,14 @@ RunSummary run_screen(const ScreenOptions& o) {
     columns = verdict_columns(v, per_test, extra_counts);
     return v;
   };
+  std::vector<double> test_seconds;
+  std::size_t eligible_taxa = 0;
+  {
+    std::vector<bool> seen(taxon_names.size());
+    for (std::size_t i = 0; i < n; ++i)
+      if (eligible[i] && !seen[taxon_of[i]]) seen[taxon_of[i]] = true, ++eligible_taxa;
+  }
+  if (o.progress) o.progress->stage("screening", eligible_taxa, "taxa");
   const auto taxa = screen_taxa(
       {g.values, g.cells, taxon_of, taxon_names, eligible, g.layer_names, g.has_discs ? &g.discs.min : nullptr,
        g.has_discs ? &g.discs.max : nullptr},
@@ -265,7 +282,11 @@ RunSummary run_screen(const ScreenOptions& o) {
           if (summary_rows.size() <= taxon.index) summary_rows.resize(taxon.index + 1);
           summary_rows[taxon.index] = std::move(row);
         }
-      });
+        if (o.progress) o.progress->advance(1);
+      },
+      &test_seconds);
+  lap("screen");
+  for (std::size_t t = 0; t < detectors.size(); ++t) summary.seconds.emplace_back("test " + names[t] + " (CPU)", test_seconds[t]);
   // Records outside every taxon: only the elevation check can judge them.
   const std::vector<Finding> none(detectors.size());
   std::vector<const Finding*> no_findings;
@@ -286,12 +307,13 @@ RunSummary run_screen(const ScreenOptions& o) {
       return (rank[a] ? rank[a] : n + 1) < (rank[b] ? rank[b] : n + 1);
     });
 
-  RunSummary summary;
   summary.warnings = g.warnings;
   CsvWriter out(o.out);
   out.row(output_header(g, added));
   std::vector<std::string> verdict;
+  if (o.progress) o.progress->stage("writing", n, "records");
   for (std::size_t i : rows) {
+    if (o.progress && summary.read % 4096 == 4095) o.progress->advance(4096);
     if (eligible[i])
       for (const auto& u : untested[i]) add_code(g.status[i], u);
     ++summary.read;
@@ -317,6 +339,8 @@ RunSummary run_screen(const ScreenOptions& o) {
     table.commit();
   }
   out.commit();
+  lap("write");
+  if (o.progress) o.progress->finish();
   return summary;
 }
 

@@ -13,6 +13,7 @@
 #include "envsift/detect/reported_elevation.hpp"
 #include "envsift/detect/robust_z.hpp"
 #include "envsift/read/point_reader.hpp"
+#include "envsift/progress.hpp"
 #include "envsift/sample/raster_stack.hpp"
 
 namespace envsift {
@@ -35,6 +36,8 @@ struct SampleOptions {
   DiscOptions discs;
   std::string assume_crs;  // CRS for layers that have none (else they are refused)
   std::size_t chunk_records = static_cast<std::size_t>(-1);  // sample this many records at a time
+  Progress* progress = nullptr;                               // optional
+  std::size_t memory_limit_mb = 4096;                         // a warning when the records need more
 };
 
 // The label's elevation against the DEM.
@@ -79,6 +82,7 @@ struct RunSummary {
   std::map<std::string, std::size_t> not_scored;  // by first reason code
   std::map<std::string, std::size_t> codes;       // every reason code, over all records
   std::vector<std::string> warnings;              // e.g. a layer no record falls on
+  std::vector<std::pair<std::string, double>> seconds;  // time per stage (and per test, CPU time)
   std::string line() const;                       // one line for stderr
   std::string codes_line() const;                 // one line: every code and its count
 };

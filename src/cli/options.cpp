@@ -2,6 +2,8 @@
 
 #include <iostream>
 #include <omp.h>
+#include <cpl_conv.h>
+#include <algorithm>
 
 #include "envsift/errors.hpp"
 
@@ -44,7 +46,15 @@ void add_sampling_options(po::options_description& d, SampleOptions& o, bool lay
     ("no-discs", po::bool_switch(), "ignore coordinate uncertainty: sample and judge each record at its point only")
     ("threads", po::value<int>()->value_name("N"), "threads to use (default: all cores); results do not depend on it")
     ("block-cache-mb", po::value(&o.cache_megabytes)->default_value(o.cache_megabytes)->value_name("MB"),
-     "memory for decoded raster blocks")
+     "memory for decoded raster blocks (at most a quarter of --memory-limit)")
+    ("memory-limit", po::value<std::size_t>()->default_value(4096)->value_name("MB"),
+     "memory envsift aims to stay within: it bounds the block cache and samples records in chunks small "
+     "enough to fit; results do not depend on it. A run whose records alone need more is warned about")
+    ("gdal-config", po::value<std::vector<std::string>>()->multitoken()->value_name("KEY=VALUE..."),
+     "GDAL configuration options, e.g. GDAL_HTTP_MAX_RETRY=3 for rasters read over HTTP "
+     "(/vsicurl/https://...) or GDAL_NUM_THREADS=2 for decompression")
+    ("quiet,q", po::bool_switch(), "no progress display")
+    ("timings", po::bool_switch(), "print the time each stage took (and each test's CPU time)")
     ("help,h", "show this help");
 }
 
@@ -84,6 +94,18 @@ void finish_sampling_options(const po::variables_map& vm, SampleOptions& o) {
   o.discs.enabled = !vm["no-discs"].as<bool>();
   if (!(o.discs.default_radius_m >= 0)) throw UsageError("--default-uncertainty must be 0 or more metres");
   if (!(o.discs.max_radius_m > 0)) throw UsageError("--max-uncertainty must be a positive number of metres");
+  const std::size_t limit_mb = vm["memory-limit"].as<std::size_t>();
+  if (limit_mb < 16) throw UsageError("--memory-limit must be at least 16 MB");
+  o.memory_limit_mb = limit_mb;
+  o.cache_megabytes = std::max<std::size_t>(1, std::min(o.cache_megabytes, limit_mb / 4));
+  // sampling works on ~100 bytes per record and layer pass; a quarter of the limit for that
+  o.chunk_records = std::max<std::size_t>(1024, (limit_mb << 20) / 4 / 100);
+  if (vm.count("gdal-config"))
+    for (const auto& kv : vm["gdal-config"].as<std::vector<std::string>>()) {
+      const auto eq = kv.find('=');
+      if (eq == std::string::npos || eq == 0) throw UsageError("--gdal-config takes KEY=VALUE, not '" + kv + "'");
+      CPLSetConfigOption(kv.substr(0, eq).c_str(), kv.substr(eq + 1).c_str());
+    }
   if (vm.count("threads")) {
     const int t = vm["threads"].as<int>();
     if (t < 1) throw UsageError("--threads must be at least 1");

@@ -2,6 +2,7 @@
 
 #include "commands.hpp"
 #include "options.hpp"
+#include "progress_display.hpp"
 
 namespace envsift::cli {
 
@@ -16,8 +17,12 @@ int sample_command(int argc, char** argv) {
   po::variables_map vm;
   if (!parse(argc, argv, "sample", "--points FILE --layers RASTER... --out FILE.csv [options]", d, vm)) return 0;
   finish_sampling_options(vm, o);
+  ProgressDisplay progress;
+  if (!vm["quiet"].as<bool>()) o.progress = &progress;
   const RunSummary summary = run_sample(o);
   for (const auto& w : summary.warnings) std::cerr << "envsift: warning: " << w << "\n";
+  if (vm["timings"].as<bool>())
+    for (const auto& [stage, seconds] : summary.seconds) std::cerr << "envsift: time: " << stage << " " << seconds << " s\n";
   std::cerr << summary.codes_line() << "\n" << summary.line() << "\nenvsift: wrote " << o.out << "\n";
   return 0;
 }

@@ -4,6 +4,7 @@
 #include "commands.hpp"
 #include "envsift/errors.hpp"
 #include "options.hpp"
+#include "progress_display.hpp"
 
 namespace envsift::cli {
 namespace {
@@ -78,6 +79,8 @@ int screen_command(int argc, char** argv) {
              "--points FILE (--layers RASTER... | --value-columns A,B,...) --out FILE.csv [options]", d, vm))
     return 0;
   finish_sampling_options(vm, o);
+  ProgressDisplay progress;
+  if (!vm["quiet"].as<bool>()) o.progress = &progress;
   o.tests = split_list(tests);
   o.value_columns = split_list(value_columns);
   if (o.value_columns.empty() && o.layers.empty()) throw UsageError("give --layers (rasters to sample) or --value-columns");
@@ -107,6 +110,8 @@ int screen_command(int argc, char** argv) {
   if (!(o.elevation.tolerance_m > 0)) throw UsageError("--elevation-tolerance must be a positive number of metres");
   const RunSummary summary = run_screen(o);
   for (const auto& w : summary.warnings) std::cerr << "envsift: warning: " << w << "\n";
+  if (vm["timings"].as<bool>())
+    for (const auto& [stage, seconds] : summary.seconds) std::cerr << "envsift: time: " << stage << " " << seconds << " s\n";
   std::cerr << summary.codes_line() << "\n" << summary.line() << "\nenvsift: wrote " << o.out << " (flags are for review, not automatic removal)\n";
   return 0;
 }

@@ -186,6 +186,9 @@ static McdResult exact_fit(const Eigen::MatrixXd& x, const Candidate& flat, cons
   const double largest = std::max(eig.eigenvalues().maxCoeff(), 0.0);
   Eigen::Index flat_count = 0;
   while (flat_count < p && eig.eigenvalues()[flat_count] <= 1e-10 * largest) ++flat_count;
+  // The subset was found singular by its Cholesky factor; its smallest direction is flat at least
+  // (and setting it aside guarantees the recursion ends).
+  flat_count = std::max<Eigen::Index>(flat_count, 1);
   const Eigen::MatrixXd normal = eig.eigenvectors().leftCols(flat_count);  // flat directions
   const Eigen::MatrixXd plane = eig.eigenvectors().rightCols(p - flat_count);
   McdResult r;
@@ -236,11 +239,17 @@ McdResult fast_mcd(const Eigen::MatrixXd& x, const McdOptions& o) {
     // Step 2: the finalists to convergence on all rows.
     bool have = false;
     for (const Candidate& c : starts) {
-      Rows rows;
-      if (c.fit.singular && sample.size() == n) rows = c.rows;
-      else if (c.fit.singular) continue;
-      else rows = sample.size() == n ? c.rows : smallest(squared_distances(x, c.fit.mean, c.fit.cov), r.h);
-      Candidate full = concentrate(x, rows, r.h, 100);
+      Candidate full;
+      if (c.fit.singular) {  // an exact fit already: keep it, in the full data's row numbers
+        Rows rows;
+        for (std::size_t k : c.rows) rows.push_back(sample[k]);
+        std::sort(rows.begin(), rows.end());
+        Fit fit = fit_rows(x, rows);
+        full = {std::move(rows), std::move(fit)};
+      } else {
+        Rows rows = sample.size() == n ? c.rows : smallest(squared_distances(x, c.fit.mean, c.fit.cov), r.h);
+        full = concentrate(x, rows, r.h, 100);
+      }
       if (!have || better(full, best)) {
         best = std::move(full);
         have = true;
@@ -249,7 +258,7 @@ McdResult fast_mcd(const Eigen::MatrixXd& x, const McdOptions& o) {
   }
 
   r.subset = best.rows;
-  if (best.fit.singular) return exact_fit(x, best, o);
+  if (best.fit.singular && best.fit.cov.size() > 0) return exact_fit(x, best, o);
   r.raw_center = best.fit.mean;
   r.raw_scatter = best.fit.cov * consistency_factor(static_cast<double>(p), static_cast<double>(r.h) / n);
   r.weights.assign(n, true);

@@ -73,6 +73,7 @@ DiscSamples RasterStack::sample_discs(const std::vector<double>& longitude, cons
   for (std::size_t i = 0; i < n; ++i)
     if (std::isfinite(longitude[i]) && std::isfinite(latitude[i]) && radius_m[i] > 0) with_disc.push_back(i);
 
+  if (progress_ && !with_disc.empty()) progress_->stage("uncertainty discs", with_disc.size() * L, "discs");
   for (std::size_t l = 0; l < L; ++l) {
     detail::LayerAccess layer(layers_[l], l, cache_, impl_->handles);
     const LayerInfo& info = layer.info();
@@ -145,6 +146,7 @@ DiscSamples RasterStack::sample_discs(const std::vector<double>& longitude, cons
             out.max(row, col) = hi;
             out.mean(row, col) = sum / static_cast<double>(count);
           }
+          if (progress_) progress_->advance(1);
         } catch (...) {
           errors[static_cast<std::size_t>(k)] = std::current_exception();
         }

@@ -137,6 +137,7 @@ Samples RasterStack::sample(const std::vector<double>& longitude, const std::vec
   out.status.assign(n * L, CellStatus::no_point);
   out.cell.assign(n, 0);
   impl_->handles.reset(L);
+  if (progress_) progress_->stage("sampling", n * L, "samples");
 
   // Records in chunks (all at once by default) so that the working set stays bounded; within a
   // chunk, layer by layer, points in block order.
@@ -216,12 +217,14 @@ Samples RasterStack::sample(const std::vector<double>& longitude, const std::vec
           out.status[p.record * L + l] = CellStatus::ok;
           out.values(p.record, static_cast<Eigen::Index>(l)) = v;
         }
+        if (progress_) progress_->advance(group_start[static_cast<std::size_t>(g) + 1] - group_start[static_cast<std::size_t>(g)]);
       } catch (...) {
         errors[static_cast<std::size_t>(g)] = std::current_exception();
       }
     }
     for (auto& e : errors)
       if (e) std::rethrow_exception(e);  // the first failing block, whatever the thread count
+    if (progress_) progress_->advance(end - begin - located.size());  // records off this layer
    }
   }
   return out;

@@ -1,7 +1,9 @@
 #include "envsift/score/screen_taxa.hpp"
 
 #include <algorithm>
+#include <chrono>
 #include <exception>
+#include <mutex>
 #include <numeric>
 #include <unordered_set>
 
@@ -19,7 +21,10 @@ std::uint64_t stable_hash(const std::string& text, std::uint64_t basis) {
 }
 
 std::vector<ScreenedTaxon> screen_taxa(const ScreeningInput& in, const std::vector<std::unique_ptr<Detector>>& detectors,
-                                       bool distinct_cells, std::uint64_t seed, const TaxonSink& sink) {
+                                       bool distinct_cells, std::uint64_t seed, const TaxonSink& sink,
+                                       std::vector<double>* test_seconds) {
+  std::mutex timing;
+  if (test_seconds) test_seconds->assign(detectors.size(), 0.0);
   const auto L = in.values.cols();
   const auto groups = group_by_taxon(in.taxon_of, in.taxon_names, in.eligible);
   std::vector<ScreenedTaxon> result(groups.size());
@@ -57,7 +62,15 @@ std::vector<ScreenedTaxon> screen_taxa(const ScreeningInput& in, const std::vect
     const TaxonValues taxon{reference, records, in.layer_names, stable_hash(g.taxon, seed ^ 0xcbf29ce484222325ull),
                             in.lower ? &lower : nullptr, in.upper ? &upper : nullptr};
     std::vector<std::vector<Finding>> findings;
-    for (const auto& d : detectors) findings.push_back(d->judge(taxon));
+    for (std::size_t t = 0; t < detectors.size(); ++t) {
+      const auto start = std::chrono::steady_clock::now();
+      findings.push_back(detectors[t]->judge(taxon));
+      if (test_seconds) {
+        const double s = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+        std::lock_guard<std::mutex> lock(timing);
+        (*test_seconds)[t] += s;
+      }
+    }
     sink(screened, findings);
    } catch (...) {
     errors[index] = std::current_exception();

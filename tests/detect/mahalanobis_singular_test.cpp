@@ -67,6 +67,15 @@ TEST(MahalanobisSingular, ExactFitOnADiscreteLayer) {
   expect_finite_with_dimension(f, 2);
 }
 
+// The same on a large taxon, where the starts are screened on a subsample (a crash once: every
+// start was an exact fit and none was carried to the full data).
+TEST(MahalanobisSingular, ExactFitOnALargeTaxon) {
+  Eigen::MatrixXd x = random_rows(4000, 3, 21);
+  for (int i = 0; i < 4000; ++i) x(i, 2) = i % 10 < 7 ? 0.0 : static_cast<double>(i % 4 + 1);
+  const std::vector<std::string> names{"a", "b", "dry_months"};
+  expect_finite_with_dimension(RobustMahalanobis().judge({x, x, names, 5}), 2);
+}
+
 TEST(MahalanobisSingular, SameSeedSameResult) {
   const Eigen::MatrixXd x = random_rows(200, 5, 17);
   const std::vector<std::string> names{"a", "b", "c", "d", "e"};

@@ -12,6 +12,7 @@
 
 #include <Eigen/Core>
 
+#include "envsift/progress.hpp"
 #include "envsift/sample/block_cache.hpp"
 
 namespace envsift {
@@ -89,8 +90,10 @@ class RasterStack {
   const BlockCache& cache() const { return cache_; }
   // Sample at most this many records at a time (bounds memory; results do not change).
   void set_chunk_records(std::size_t records) { chunk_records_ = records ? records : 1; }
+  void set_progress(Progress* progress) { progress_ = progress; }
 
  private:
+  Progress* progress_ = nullptr;
   std::size_t chunk_records_ = static_cast<std::size_t>(-1);
   struct Impl;
   std::vector<LayerInfo> layers_;

@@ -41,8 +41,10 @@ using TaxonSink = std::function<void(const ScreenedTaxon&, std::vector<std::vect
 // still judged. seed: randomised tests get a seed derived from it and the taxon's name, so a
 // taxon's result depends on neither thread count nor which other taxa are in the file.
 // Returns the taxa, sorted by name (records and reference rows filled in).
+// `test_seconds` (optional) receives each test's computing time, summed over threads.
 std::vector<ScreenedTaxon> screen_taxa(const ScreeningInput& input, const std::vector<std::unique_ptr<Detector>>& detectors,
-                                       bool distinct_cells, std::uint64_t seed, const TaxonSink& sink);
+                                       bool distinct_cells, std::uint64_t seed, const TaxonSink& sink,
+                                       std::vector<double>* test_seconds = nullptr);
 
 // A 64-bit FNV-1a hash: stable across machines, compilers and runs.
 std::uint64_t stable_hash(const std::string& text, std::uint64_t basis = 0xcbf29ce484222325ull);
