@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <chrono>
 #include <cstring>
 #include <tuple>
 
@@ -37,8 +38,15 @@ void add_code(std::vector<std::string>& codes, const std::string& code) {
 Gathered sample_rasters(const SampleOptions& o, const std::vector<std::string>& added_columns,
                         const std::function<bool(const PointTable&, std::size_t)>& keep) {
   Gathered g;
+  auto clock = std::chrono::steady_clock::now();
+  auto lap = [&](const std::string& stage) {
+    const auto now = std::chrono::steady_clock::now();
+    g.seconds.emplace_back(stage, std::chrono::duration<double>(now - clock).count());
+    clock = now;
+  };
   auto specs = expand_layer_arguments(o.layers);
   g.table = read_points(o.points, o.reader);
+  lap("read points");
   const std::size_t n = g.table.records.size();
   g.has_discs = o.discs.enabled && (g.table.uncertainty_column || o.discs.default_radius_m > 0);
   std::vector<std::string> columns = g.table.columns;
@@ -67,6 +75,7 @@ Gathered sample_rasters(const SampleOptions& o, const std::vector<std::string>& 
   stack.set_chunk_records(o.chunk_records);
   stack.set_progress(o.progress);
   Samples samples = stack.sample(lon, lat, o.method);
+  lap("sample");
   g.values = std::move(samples.values);
   g.cells = std::move(samples.cell);
   for (const auto& l : stack.layers()) {
@@ -121,6 +130,7 @@ Gathered sample_rasters(const SampleOptions& o, const std::vector<std::string>& 
       g.radius_m[i] = r;
     }
     g.discs = stack.sample_discs(lon, lat, g.radius_m);
+    lap("uncertainty discs");
   }
   return g;
 }

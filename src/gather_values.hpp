@@ -26,6 +26,7 @@ struct Gathered {
   std::vector<std::vector<std::string>> status;  // reason codes per record
   std::vector<std::vector<std::string>> notes;   // words for `reasons` (e.g. a capped disc)
   std::vector<std::string> warnings;             // for stderr
+  std::vector<std::pair<std::string, double>> seconds;  // time per stage
 };
 
 // `added_columns`: what the caller will append, checked against the input's and layers' names.

@@ -128,11 +128,14 @@ std::string RunSummary::codes_line() const {
 
 RunSummary run_sample(const SampleOptions& o) {
   const std::vector<std::string> added{"status"};
+  const auto start = std::chrono::steady_clock::now();
   const Gathered g = detail::sample_rasters(o, added);
+  const auto sampled = std::chrono::steady_clock::now();
   CsvWriter out(o.out);
   out.row(output_header(g, added));
   RunSummary summary;
   summary.warnings = g.warnings;
+  summary.seconds = g.seconds;
   for (std::size_t i = 0; i < g.table.records.size(); ++i) {
     out.row(output_row(g, i));
     for (const auto& c : g.status[i]) ++summary.codes[c];
@@ -141,6 +144,8 @@ RunSummary run_sample(const SampleOptions& o) {
     else ++summary.not_scored[g.status[i].empty() ? reason::no_values : g.status[i].front()];
   }
   out.commit();
+  summary.seconds.emplace_back("write", std::chrono::duration<double>(std::chrono::steady_clock::now() - sampled).count());
+  summary.seconds.emplace_back("total", std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count());
   return summary;
 }
 
@@ -190,7 +195,8 @@ RunSummary run_screen(const ScreenOptions& o) {
     clock = now;
   };
   Gathered g = o.value_columns.empty() ? detail::sample_rasters(o, added, owned) : detail::read_value_columns(o, added);
-  lap("read and sample");
+  summary.seconds = g.seconds;
+  lap("sampling, total");
   const std::size_t n = g.table.records.size();
   std::vector<bool> mine(n);
   for (std::size_t i = 0; i < n; ++i) {

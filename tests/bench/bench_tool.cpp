@@ -4,6 +4,9 @@
 //   envsift_bench layers DIR COUNT WIDTH HEIGHT [W S E N]  float32 GeoTIFFs, tiled, DEFLATE (default: the globe)
 //   envsift_bench points FILE N TAXA SEED [W S E N]        clustered occurrences in Darwin Core columns
 //   envsift_bench discs LAYER POINTS N RADIUS_M...  seconds per record to sample discs of each radius
+//   envsift_bench floor POINTS LAYER...             the block-read floor: plain GDAL reading and
+//                                                   decompressing every block the points touch
+//                                                   (geographic layers), in parallel like envsift
 #include <chrono>
 #include <cmath>
 #include <cstdio>
@@ -116,6 +119,56 @@ void time_discs(const std::string& layer, const std::string& points, long n, con
   }
 }
 
+std::vector<std::pair<double, double>> read_lon_lat(const std::string& points) {
+  std::ifstream in(points);
+  std::string line;
+  std::getline(in, line);
+  std::vector<std::pair<double, double>> out;
+  while (std::getline(in, line)) {
+    std::size_t a = line.find(','), b = line.find(',', a + 1), c = line.find(',', b + 1), d = line.find(',', c + 1);
+    out.emplace_back(std::stod(line.substr(b + 1, c - b - 1)), std::stod(line.substr(c + 1, d - c - 1)));
+  }
+  return out;
+}
+
+void block_read_floor(const std::string& points, const std::vector<std::string>& layers) {
+  GDALAllRegister();
+  const auto lonlat = read_lon_lat(points);
+  std::size_t blocks_total = 0;
+  const auto start = std::chrono::steady_clock::now();
+  for (const auto& path : layers) {
+    GDALDataset* ds = GDALDataset::Open(path.c_str(), GDAL_OF_RASTER | GDAL_OF_READONLY);
+    double gt[6];
+    ds->GetGeoTransform(gt);
+    int bw, bh;
+    ds->GetRasterBand(1)->GetBlockSize(&bw, &bh);
+    const int w = ds->GetRasterXSize(), h = ds->GetRasterYSize();
+    std::vector<char> touched(static_cast<std::size_t>(((w + bw - 1) / bw) * ((h + bh - 1) / bh)), 0);
+    const int across = (w + bw - 1) / bw;
+    for (const auto& [lon, lat] : lonlat) {
+      const double px = (lon - gt[0]) / gt[1], py = (lat - gt[3]) / gt[5];
+      if (px >= 0 && px < w && py >= 0 && py < h)
+        touched[static_cast<std::size_t>(static_cast<int>(py) / bh * across + static_cast<int>(px) / bw)] = 1;
+    }
+    GDALClose(ds);
+    std::vector<int> list;
+    for (std::size_t k = 0; k < touched.size(); ++k)
+      if (touched[k]) list.push_back(static_cast<int>(k));
+    blocks_total += list.size();
+#pragma omp parallel
+    {
+      GDALDataset* mine = GDALDataset::Open(path.c_str(), GDAL_OF_RASTER | GDAL_OF_READONLY);
+      std::vector<float> buffer(static_cast<std::size_t>(bw) * static_cast<std::size_t>(bh));
+#pragma omp for schedule(dynamic, 1)
+      for (std::size_t k = 0; k < list.size(); ++k)
+        if (mine->GetRasterBand(1)->ReadBlock(list[k] % across, list[k] / across, buffer.data()) != CE_None) std::exit(1);
+      GDALClose(mine);
+    }
+  }
+  const double s = seconds_since(start);
+  std::printf("block_read_floor_seconds,%.3f\nblocks_read,%zu\n", s, blocks_total);
+}
+
 }  // namespace
 
 int main(int argc, char** argv) {
@@ -129,6 +182,8 @@ int main(int argc, char** argv) {
     std::vector<double> radii;
     for (int i = 5; i < argc; ++i) radii.push_back(std::atof(argv[i]));
     time_discs(argv[2], argv[3], std::atol(argv[4]), radii);
+  } else if (what == "floor" && argc >= 4) {
+    block_read_floor(argv[2], std::vector<std::string>(argv + 3, argv + argc));
   } else {
     std::fprintf(stderr, "usage: see the comment at the top of tests/bench/bench_tool.cpp\n");
     return 2;
