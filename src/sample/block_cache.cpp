@@ -27,7 +27,7 @@ BlockCache::BlockPtr BlockCache::get(const BlockKey& key, const std::function<Bl
     std::lock_guard<std::mutex> lock(mutex_);
     auto it = entries_.find(key);
     if (it != entries_.end()) {
-      it->second.bytes = block->values.size() * sizeof(double);
+      it->second.bytes = block->bytes();
       bytes_ += it->second.bytes;
       evict_locked();
     }

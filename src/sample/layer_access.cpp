@@ -104,9 +104,16 @@ BlockCache::BlockPtr LayerAccess::block(int bx, int by) {
                        "cannot read block " + std::to_string(bx) + "," + std::to_string(by) + " (" +
                            CPLGetLastErrorMsg() + ")",
                        "the file may be truncated or corrupt; copy or download it again");
-    b.values.resize(cells);
-    GDALCopyWords64(raw.data(), type, GDALGetDataTypeSizeBytes(type), b.values.data(), GDT_Float64,
-                    sizeof(double), static_cast<GPtrDiff_t>(cells));
+    const bool float_exact = type == GDT_Byte || type == GDT_UInt16 || type == GDT_Int16 || type == GDT_Float32;
+    if (float_exact) {
+      b.floats.resize(cells);
+      GDALCopyWords64(raw.data(), type, GDALGetDataTypeSizeBytes(type), b.floats.data(), GDT_Float32, sizeof(float),
+                      static_cast<GPtrDiff_t>(cells));
+    } else {
+      b.values.resize(cells);
+      GDALCopyWords64(raw.data(), type, GDALGetDataTypeSizeBytes(type), b.values.data(), GDT_Float64, sizeof(double),
+                      static_cast<GPtrDiff_t>(cells));
+    }
     return b;
   });
 }

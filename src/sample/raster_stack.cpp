@@ -90,6 +90,58 @@ struct Location {
   std::uint64_t block;
 };
 
+// Where a chunk of points falls on one grid: each point's cell, and the points inside the grid
+// grouped by block (a counting sort by block: linear time, and stable, so input order within a
+// block).
+struct PointPlan {
+  std::vector<Location> located;
+  std::vector<std::size_t> group_start;  // located[group_start[g] .. group_start[g+1]) share a block
+  std::vector<std::uint64_t> cell;       // per point: 1 + row * width + col, 0 when none
+  std::vector<char> outside;             // per point: has coordinates, but off the grid
+};
+
+PointPlan plan_points(const detail::LayerAccess& layer, const std::vector<double>& longitude,
+                      const std::vector<double>& latitude, std::size_t begin, std::size_t end) {
+  const LayerInfo& info = layer.info();
+  std::vector<double> x(longitude.begin() + static_cast<std::ptrdiff_t>(begin), longitude.begin() + static_cast<std::ptrdiff_t>(end));
+  std::vector<double> y(latitude.begin() + static_cast<std::ptrdiff_t>(begin), latitude.begin() + static_cast<std::ptrdiff_t>(end));
+  layer.to_layer(x, y);  // into the layer's CRS
+  PointPlan plan;
+  plan.cell.assign(end - begin, 0);
+  plan.outside.assign(end - begin, 0);
+  const std::uint64_t across = (static_cast<std::uint64_t>(info.width) + info.block_width - 1) / info.block_width;
+  const std::uint64_t down = (static_cast<std::uint64_t>(info.height) + info.block_height - 1) / info.block_height;
+  std::vector<Location> unsorted;
+  unsorted.reserve(end - begin);
+  std::vector<std::size_t> count(across * down + 1, 0);
+  for (std::size_t i = begin; i < end; ++i) {
+    if (!std::isfinite(longitude[i]) || !std::isfinite(latitude[i])) continue;  // no point
+    double px, py;
+    if (!layer.pixel(x[i - begin], y[i - begin], px, py)) {
+      plan.outside[i - begin] = 1;
+      continue;
+    }
+    const int col = static_cast<int>(std::floor(px)), row = static_cast<int>(std::floor(py));
+    const std::uint64_t block = static_cast<std::uint64_t>(row / info.block_height) * across +
+                                static_cast<std::uint64_t>(col / info.block_width);
+    unsorted.push_back({static_cast<std::uint32_t>(i), col, row, px, py, block});
+    plan.cell[i - begin] = 1 + static_cast<std::uint64_t>(row) * static_cast<std::uint64_t>(info.width) + static_cast<std::uint64_t>(col);
+    ++count[block + 1];
+  }
+  for (std::size_t b = 1; b < count.size(); ++b) count[b] += count[b - 1];  // start of each block
+  plan.located.resize(unsorted.size());
+  for (const Location& p : unsorted) plan.located[count[p.block]++] = p;
+  for (std::size_t k = 0; k < plan.located.size(); ++k)
+    if (k == 0 || plan.located[k].block != plan.located[k - 1].block) plan.group_start.push_back(k);
+  plan.group_start.push_back(plan.located.size());
+  return plan;
+}
+
+bool same_grid(const LayerInfo& a, const LayerInfo& b) {
+  return a.width == b.width && a.height == b.height && a.geotransform == b.geotransform &&
+         a.block_width == b.block_width && a.block_height == b.block_height && a.crs_wkt == b.crs_wkt;
+}
+
 std::uint64_t mix(std::uint64_t h, std::uint64_t v) {
   h ^= v + 0x9E3779B97F4A7C15ull + (h << 6) + (h >> 2);
   return h;
@@ -143,42 +195,24 @@ Samples RasterStack::sample(const std::vector<double>& longitude, const std::vec
   // chunk, layer by layer, points in block order.
   for (std::size_t begin = 0; begin < n; begin += chunk_records_) {
    const std::size_t end = std::min(n, begin + chunk_records_);
+   PointPlan plan;
+   const LayerInfo* plan_grid = nullptr;
    for (std::size_t l = 0; l < L; ++l) {
     detail::LayerAccess layer(layers_[l], l, cache_, impl_->handles);
     const LayerInfo& info = layer.info();
 
-    // 1. Into the layer's CRS.
-    std::vector<double> x(longitude.begin() + static_cast<std::ptrdiff_t>(begin), longitude.begin() + static_cast<std::ptrdiff_t>(end));
-    std::vector<double> y(latitude.begin() + static_cast<std::ptrdiff_t>(begin), latitude.begin() + static_cast<std::ptrdiff_t>(end));
-    layer.to_layer(x, y);
-
-    // 2. Cell of each point; points ordered by block so every block is visited once. Each
-    // record's cell key mixes in its cell on every layer, in layer order.
-    std::vector<Location> located;
-    located.reserve(end - begin);
-    const std::uint64_t blocks_across = (info.width + info.block_width - 1) / info.block_width;
-    for (std::size_t i = begin; i < end; ++i) {
-      std::uint64_t cell = 0;  // 1 + row * width + col; 0 = none
-      double px, py;
-      if (!std::isfinite(longitude[i]) || !std::isfinite(latitude[i])) {
-        // no point: status stays no_point
-      } else if (!layer.pixel(x[i - begin], y[i - begin], px, py)) {
-        out.status[i * L + l] = CellStatus::outside;
-      } else {
-        const int col = static_cast<int>(std::floor(px)), row = static_cast<int>(std::floor(py));
-        const std::uint64_t block = static_cast<std::uint64_t>(row / info.block_height) * blocks_across +
-                                    static_cast<std::uint64_t>(col / info.block_width);
-        located.push_back({static_cast<std::uint32_t>(i), col, row, px, py, block});
-        cell = 1 + static_cast<std::uint64_t>(row) * info.width + col;
-      }
-      out.cell[i] = mix(out.cell[i], cell);
+    // 1-2. Where the chunk's points fall, in block order — computed once for all layers on the
+    // same grid (climate stacks usually share one).
+    if (!plan_grid || !same_grid(*plan_grid, info)) {
+      plan = plan_points(layer, longitude, latitude, begin, end);
+      plan_grid = &info;
     }
-    std::stable_sort(located.begin(), located.end(),
-                     [](const Location& a, const Location& b) { return a.block < b.block; });
-    std::vector<std::size_t> group_start;
-    for (std::size_t k = 0; k < located.size(); ++k)
-      if (k == 0 || located[k].block != located[k - 1].block) group_start.push_back(k);
-    group_start.push_back(located.size());
+    for (std::size_t i = begin; i < end; ++i) {
+      if (plan.outside[i - begin]) out.status[i * L + l] = CellStatus::outside;
+      out.cell[i] = mix(out.cell[i], plan.cell[i - begin]);  // every layer's cell, in layer order
+    }
+    const std::vector<Location>& located = plan.located;
+    const std::vector<std::size_t>& group_start = plan.group_start;
 
     // 3. Read blocks in parallel and look the points up. A cell of the block being visited is
     // read from it directly; bilinear neighbours across its edge come through the cache.

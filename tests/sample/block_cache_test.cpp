@@ -16,7 +16,7 @@ Block block_of(int cells) {
   Block b;
   b.width = cells;
   b.height = 1;
-  b.values.assign(static_cast<std::size_t>(cells), 1.0);
+  b.values.assign(static_cast<std::size_t>(cells), 1.0);  // a double block; float blocks count half
   return b;
 }
 

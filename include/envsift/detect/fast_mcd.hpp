@@ -12,7 +12,8 @@ namespace envsift {
 struct McdOptions {
   std::size_t starts = 500;        // random (p+1)-subsets tried
   std::size_t finalists = 10;      // best starts iterated to convergence on all rows
-  std::size_t subsample = 1500;    // larger data: starts are screened on this many random rows
+  std::size_t subsample = 1500;    // larger data: starts are screened on this many random rows…
+  std::size_t group = 300;         // …in groups of about this many (nested subsets, n > 2 · group)
   double reweight_quantile = 0.975;
   std::uint64_t seed = 1;
 };

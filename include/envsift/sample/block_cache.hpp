@@ -14,12 +14,18 @@
 
 namespace envsift {
 
-// One block's raw cell values (before scale/offset), row-major with stride `width`.
+// One block's raw cell values (before scale/offset), row-major with stride `width`. Types that
+// a float holds exactly (8- and 16-bit integers, Float32) are kept as floats: half the memory.
 struct Block {
   int width = 0;
   int height = 0;
-  std::vector<double> values;
-  double at(int col, int row) const { return values[static_cast<std::size_t>(row) * width + col]; }
+  std::vector<double> values;  // other types
+  std::vector<float> floats;   // float-exact types
+  double at(int col, int row) const {
+    const std::size_t i = static_cast<std::size_t>(row) * static_cast<std::size_t>(width) + static_cast<std::size_t>(col);
+    return floats.empty() ? values[i] : floats[i];
+  }
+  std::size_t bytes() const { return values.size() * sizeof(double) + floats.size() * sizeof(float); }
 };
 
 struct BlockKey {
