@@ -31,8 +31,18 @@ std::string metres(double m) {
 
 }  // namespace
 
-void add_code(std::vector<std::string>& codes, const std::string& code) {
-  if (std::find(codes.begin(), codes.end(), code) == codes.end()) codes.push_back(code);
+void CodeLists::set(std::size_t record, const std::vector<std::string>& codes) {
+  auto [it, added] = lookup_.emplace(codes, static_cast<std::uint32_t>(lists_.size()));
+  if (added) lists_.push_back(codes);
+  index_[record] = it->second;
+}
+
+void CodeLists::add(std::size_t record, const std::string& code) {
+  const auto& now = of(record);
+  if (std::find(now.begin(), now.end(), code) != now.end()) return;
+  std::vector<std::string> codes = now;
+  codes.push_back(code);
+  set(record, codes);
 }
 
 Gathered sample_rasters(const SampleOptions& o, const std::vector<std::string>& added_columns,
@@ -83,14 +93,14 @@ Gathered sample_rasters(const SampleOptions& o, const std::vector<std::string>& 
     g.float32.push_back(o.method == Interpolation::nearest && l.float32_values);
   }
   g.status.resize(n);
-  g.notes.resize(n);
   for (std::size_t i = 0; i < n; ++i) {
-    g.status[i] = g.table.problems(i);
+    std::vector<std::string> codes = g.table.problems(i);
     for (std::size_t l = 0; l < g.layer_names.size(); ++l) {
       const CellStatus c = samples.status_at(i, l);
-      if (c == CellStatus::outside) g.status[i].push_back(reason::on_layer(reason::outside_layer, g.layer_names[l]));
-      if (c == CellStatus::nodata) g.status[i].push_back(reason::on_layer(reason::nodata, g.layer_names[l]));
+      if (c == CellStatus::outside) codes.push_back(reason::on_layer(reason::outside_layer, g.layer_names[l]));
+      if (c == CellStatus::nodata) codes.push_back(reason::on_layer(reason::nodata, g.layer_names[l]));
     }
+    if (!codes.empty()) g.status.set(i, codes);
   }
   // A layer that no record falls on is almost always a CRS or extent mistake: say so.
   std::size_t with_coordinates = 0;
@@ -115,7 +125,7 @@ Gathered sample_rasters(const SampleOptions& o, const std::vector<std::string>& 
     const Samples swapped = stack.sample(swapped_lon, swapped_lat, Interpolation::nearest);
     for (std::size_t k = 0; k < lost.size(); ++k)
       if (swapped.values.row(static_cast<Eigen::Index>(k)).array().isFinite().any())
-        add_code(g.status[lost[k]], reason::coord_possibly_swapped);  // reported, never corrected
+        g.status.add(lost[k], reason::coord_possibly_swapped);  // reported, never corrected
   }
   g.radius_m.assign(n, 0.0);
   if (g.has_discs) {
@@ -123,7 +133,7 @@ Gathered sample_rasters(const SampleOptions& o, const std::vector<std::string>& 
       const auto& u = g.table.records[i].uncertainty_m;
       double r = u ? *u : o.discs.default_radius_m;
       if (r > o.discs.max_radius_m) {
-        g.status[i].push_back(reason::uncertainty_capped);
+        g.status.add(i, reason::uncertainty_capped);
         g.notes[i].push_back("uncertainty " + metres(r) + " cut to " + metres(o.discs.max_radius_m));
         r = o.discs.max_radius_m;
       }
@@ -157,7 +167,6 @@ Gathered read_value_columns(const ScreenOptions& o, const std::vector<std::strin
   g.values = Eigen::MatrixXd::Constant(static_cast<Eigen::Index>(n), static_cast<Eigen::Index>(index.size()), std::nan(""));
   g.cells.assign(n, 0);
   g.status.resize(n);
-  g.notes.resize(n);
   g.radius_m.assign(n, 0.0);
   std::vector<std::string> fields;
   for (std::size_t i = 0; i < n; ++i) {
@@ -165,7 +174,7 @@ Gathered read_value_columns(const ScreenOptions& o, const std::vector<std::strin
     for (const auto& p : g.table.problems(i))
       if (p == reason::ragged_row || p == reason::uncertainty_not_numeric || p == reason::latin1_converted ||
           p == reason::duplicate_id)
-        g.status[i].push_back(p);
+        g.status.add(i, p);
     std::uint64_t key = 0xcbf29ce484222325ull;  // FNV-1a over the values' bits: equal values, equal key
     for (std::size_t l = 0; l < index.size(); ++l) {
       const ParsedNumber v = parse_number(fields[index[l]]);
@@ -175,8 +184,8 @@ Gathered read_value_columns(const ScreenOptions& o, const std::vector<std::strin
         std::memcpy(&bits, &v.value, sizeof bits);
         key = (key ^ bits) * 0x100000001b3ull;
       } else {
-        g.status[i].push_back(reason::on_layer(v.problem == "empty" ? reason::value_missing : reason::value_not_numeric,
-                                               g.layer_names[l]));
+        g.status.add(i, reason::on_layer(v.problem == "empty" ? reason::value_missing : reason::value_not_numeric,
+                                         g.layer_names[l]));
         key = (key ^ 0x9E3779B97F4A7C15ull) * 0x100000001b3ull;
       }
     }
@@ -200,7 +209,7 @@ std::vector<ReportedElevation> reported_elevations(Gathered& g, const ColumnName
     g.table.fields.read(i, fields);
     for (const auto& [name, member, col] : wanted) {
       const ParsedElevation e = parse_elevation(fields[col]);
-      if (!e.problem.empty()) add_code(g.status[i], reason::on_layer(e.problem, name));
+      if (!e.problem.empty()) g.status.add(i, reason::on_layer(e.problem, name));
       else if (e.present) out[i].*member = e.metres;
     }
   }

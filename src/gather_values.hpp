@@ -3,6 +3,7 @@
 #pragma once
 #include <cstdint>
 #include <functional>
+#include <map>
 #include <string>
 #include <vector>
 
@@ -12,6 +13,21 @@
 #include "envsift/pipeline.hpp"
 
 namespace envsift::detail {
+
+// The reason codes of every record. Few distinct lists occur (most records have none), so each
+// list is stored once and a record holds its index: 4 bytes a record instead of a vector.
+class CodeLists {
+ public:
+  void resize(std::size_t records) { index_.assign(records, 0); }
+  const std::vector<std::string>& of(std::size_t record) const { return lists_[index_[record]]; }
+  void set(std::size_t record, const std::vector<std::string>& codes);
+  void add(std::size_t record, const std::string& code);  // unless it is there already
+
+ private:
+  std::vector<std::uint32_t> index_;
+  std::vector<std::vector<std::string>> lists_{{}};
+  std::map<std::vector<std::string>, std::uint32_t> lookup_{{{}, 0}};
+};
 
 struct Gathered {
   PointTable table;
@@ -23,8 +39,8 @@ struct Gathered {
   bool has_discs = false;
   DiscSamples discs;                // valid when has_discs
   std::vector<double> radius_m;     // disc radius used per record (0 = none)
-  std::vector<std::vector<std::string>> status;  // reason codes per record
-  std::vector<std::vector<std::string>> notes;   // words for `reasons` (e.g. a capped disc)
+  CodeLists status;                              // reason codes per record
+  std::map<std::size_t, std::vector<std::string>> notes;  // per record, rare: words for `reasons` (a capped disc)
   std::vector<std::string> warnings;             // for stderr
   std::vector<std::pair<std::string, double>> seconds;  // time per stage
 };
@@ -38,6 +54,5 @@ Gathered read_value_columns(const ScreenOptions& o, const std::vector<std::strin
 // Reported elevations of every record (problems go to `status`).
 std::vector<ReportedElevation> reported_elevations(Gathered& g, const ColumnNames& columns);
 
-void add_code(std::vector<std::string>& codes, const std::string& code);
 
 }  // namespace envsift::detail

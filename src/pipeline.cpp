@@ -6,6 +6,7 @@
 #include <chrono>
 #include <fstream>
 #include <mutex>
+#include <sstream>
 #include <numeric>
 
 #include "envsift/detect/reverse_jackknife.hpp"
@@ -24,7 +25,6 @@
 namespace envsift {
 namespace {
 
-using detail::add_code;
 using detail::Gathered;
 
 const std::string kElevationCheck = "elevation_mismatch";
@@ -65,7 +65,7 @@ std::vector<std::string> output_row(const Gathered& g, std::size_t i) {
         row.push_back(format_value(g.discs.max(r, c), g.float32[l]));
       }
     }
-  row.push_back(g.status[i].empty() ? reason::ok : join(g.status[i], ";"));
+  row.push_back(g.status.of(i).empty() ? reason::ok : join(g.status.of(i), ";"));
   return row;
 }
 
@@ -138,10 +138,10 @@ RunSummary run_sample(const SampleOptions& o) {
   summary.seconds = g.seconds;
   for (std::size_t i = 0; i < g.table.records.size(); ++i) {
     out.row(output_row(g, i));
-    for (const auto& c : g.status[i]) ++summary.codes[c];
+    for (const auto& c : g.status.of(i)) ++summary.codes[c];
     ++summary.read;
     if (has_any_value(g.values, i)) ++summary.scored;  // for `sample`, a record is done once it has values
-    else ++summary.not_scored[g.status[i].empty() ? reason::no_values : g.status[i].front()];
+    else ++summary.not_scored[g.status.of(i).empty() ? reason::no_values : g.status.of(i).front()];
   }
   out.commit();
   summary.seconds.emplace_back("write", std::chrono::duration<double>(std::chrono::steady_clock::now() - sampled).count());
@@ -201,7 +201,7 @@ RunSummary run_screen(const ScreenOptions& o) {
   std::vector<bool> mine(n);
   for (std::size_t i = 0; i < n; ++i) {
     mine[i] = owned(g.table, i);
-    if (!mine[i]) g.status[i] = {reason::other_shard};
+    if (!mine[i]) g.status.set(i, {reason::other_shard});
   }
 
   // Taxa: the reader's interned names, or one group for --single-taxon.
@@ -211,7 +211,7 @@ RunSummary run_screen(const ScreenOptions& o) {
   std::vector<bool> eligible(n);
   for (std::size_t i = 0; i < n; ++i) {
     taxon_of[i] = o.single_taxon ? 1u : g.table.records[i].taxon;
-    if (taxon_of[i] == 0 && g.table.records[i].has_coordinates() && mine[i]) g.status[i].push_back(reason::taxon_missing);
+    if (taxon_of[i] == 0 && g.table.records[i].has_coordinates() && mine[i]) g.status.add(i, reason::taxon_missing);
     eligible[i] = mine[i] && taxon_of[i] != 0 && has_any_value(g.values, i);
   }
 
@@ -245,16 +245,22 @@ RunSummary run_screen(const ScreenOptions& o) {
   constexpr std::uint64_t kNone = ~std::uint64_t(0);
   std::vector<std::uint64_t> result_of(n, kNone);
   std::vector<std::optional<double>> scores(n);
-  std::vector<std::vector<std::string>> untested(n);
   std::vector<std::vector<std::string>> summary_rows;
   auto judge_record = [&](std::size_t i, std::vector<const Finding*> per_test, std::vector<std::string>& columns) {
     const Finding elevation = elevation_of(i);
     if (check_elevation) per_test.push_back(&elevation);
     Verdict v = combine(per_test, names);
-    for (const auto& note : g.notes[i]) v.reasons.push_back(note);
+    if (const auto note = g.notes.find(i); note != g.notes.end())
+      v.reasons.insert(v.reasons.end(), note->second.begin(), note->second.end());
     // rank by the score as written, so that merged shards rank exactly as a single run
     if (v.score) scores[i] = std::stod(format_score(*v.score));
+    // first the codes of tests that could not judge the record (they join its status), then
+    // the columns as written
+    std::vector<std::string> codes;
+    for (const auto& u : v.untested)
+      if (!u.empty()) codes.push_back(u);
     columns = verdict_columns(v, per_test, extra_counts);
+    columns.insert(columns.begin(), join(codes, ";"));
     return v;
   };
   std::vector<double> test_seconds;
@@ -276,8 +282,6 @@ RunSummary run_screen(const ScreenOptions& o) {
           std::vector<const Finding*> per_test;
           for (const auto& f : findings) per_test.push_back(&f[r]);
           verdicts.push_back(judge_record(i, per_test, columns));
-          for (const auto& u : verdicts.back().untested)
-            if (!u.empty()) untested[i].push_back(u);
           std::lock_guard<std::mutex> lock(results_lock);
           results.append(columns);
           result_of[i] = results.size() - 1;
@@ -320,21 +324,23 @@ RunSummary run_screen(const ScreenOptions& o) {
   if (o.progress) o.progress->stage("writing", n, "records");
   for (std::size_t i : rows) {
     if (o.progress && summary.read % 4096 == 4095) o.progress->advance(4096);
-    if (eligible[i])
-      for (const auto& u : untested[i]) add_code(g.status[i], u);
     ++summary.read;
     results.read(result_of[i], verdict);
+    if (eligible[i] && !verdict[0].empty()) {
+      std::stringstream codes(verdict[0]);
+      for (std::string code; std::getline(codes, code, ';');) g.status.add(i, code);
+    }
     if (scores[i]) {
       ++summary.scored;
-      if (!verdict[1].empty()) ++summary.flagged;
+      if (!verdict[2].empty()) ++summary.flagged;
     } else {
-      if (g.status[i].empty()) g.status[i].push_back(reason::no_values);
-      ++summary.not_scored[g.status[i].front()];
+      if (g.status.of(i).empty()) g.status.add(i, reason::no_values);
+      ++summary.not_scored[g.status.of(i).front()];
     }
-    for (const auto& c : g.status[i]) ++summary.codes[c];
+    for (const auto& c : g.status.of(i)) ++summary.codes[c];
     auto row = output_row(g, i);
     row.push_back(rank[i] ? std::to_string(rank[i]) : "");
-    row.insert(row.end(), verdict.begin(), verdict.end());
+    row.insert(row.end(), verdict.begin() + 1, verdict.end());
     out.row(row);
   }
 
