@@ -425,7 +425,12 @@ RunSummary merge_shards(const std::vector<std::string>& paths, const std::string
   for (std::size_t i = 0; next_rows(row, i + 1, status); ++i) {
     row[rank] = ranks[i] ? std::to_string(ranks[i]) : "";
     ++summary.read;
+    std::vector<std::string> codes;
+    std::stringstream status_text(row[status]);
+    for (std::string code; std::getline(status_text, code, ';');)
+      if (code != reason::ok) codes.push_back(code), ++summary.codes[code];
     if (scores[i]) ++summary.scored;
+    else ++summary.not_scored[codes.empty() ? reason::no_values : codes.front()];
     if (!row[flags].empty()) ++summary.flagged;
     out.row(row);
   }

@@ -24,8 +24,7 @@ int merge_command(int argc, char** argv) {
   positional.add("shards", -1);
   po::variables_map vm;
   if (!parse(argc, argv, "merge", "SHARD_OUTPUT... --out FILE.csv", all, vm, &positional, &d)) return 0;
-  const RunSummary summary = merge_shards(shards, out);
-  std::cerr << summary.line() << "\nenvsift: wrote " << out << " (flags are for review, not automatic removal)\n";
+  report(merge_shards(shards, out), vm, out + " (flags are for review, not automatic removal)");
   return 0;
 }
 

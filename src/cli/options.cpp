@@ -113,4 +113,11 @@ void finish_sampling_options(const po::variables_map& vm, SampleOptions& o) {
   }
 }
 
+void report(const RunSummary& summary, const po::variables_map& vm, const std::string& wrote) {
+  for (const auto& w : summary.warnings) std::cerr << "envsift: warning: " << w << "\n";
+  if (vm.count("timings") && vm["timings"].as<bool>())
+    for (const auto& [stage, seconds] : summary.seconds) std::cerr << "envsift: time: " << stage << " " << seconds << " s\n";
+  std::cerr << summary.codes_line() << "\n" << summary.line() << "\nenvsift: wrote " << wrote << "\n";
+}
+
 }  // namespace envsift::cli

@@ -24,4 +24,7 @@ bool parse(int argc, char** argv, const std::string& command, const std::string&
 // Applies the parsed values that need checking or conversion (method, delimiter, threads).
 void finish_sampling_options(const po::variables_map& vm, SampleOptions& o);
 
+// Warnings, timings (with --timings), reason-code counts and the record accounting, on stderr.
+void report(const RunSummary& summary, const po::variables_map& vm, const std::string& wrote);
+
 }  // namespace envsift::cli

@@ -19,11 +19,7 @@ int sample_command(int argc, char** argv) {
   finish_sampling_options(vm, o);
   ProgressDisplay progress;
   if (!vm["quiet"].as<bool>()) o.progress = &progress;
-  const RunSummary summary = run_sample(o);
-  for (const auto& w : summary.warnings) std::cerr << "envsift: warning: " << w << "\n";
-  if (vm["timings"].as<bool>())
-    for (const auto& [stage, seconds] : summary.seconds) std::cerr << "envsift: time: " << stage << " " << seconds << " s\n";
-  std::cerr << summary.codes_line() << "\n" << summary.line() << "\nenvsift: wrote " << o.out << "\n";
+  report(run_sample(o), vm, o.out);
   return 0;
 }
 

@@ -108,11 +108,7 @@ int screen_command(int argc, char** argv) {
       throw UsageError("--shard I/N needs 0 <= I < N, not '" + text + "'");
   }
   if (!(o.elevation.tolerance_m > 0)) throw UsageError("--elevation-tolerance must be a positive number of metres");
-  const RunSummary summary = run_screen(o);
-  for (const auto& w : summary.warnings) std::cerr << "envsift: warning: " << w << "\n";
-  if (vm["timings"].as<bool>())
-    for (const auto& [stage, seconds] : summary.seconds) std::cerr << "envsift: time: " << stage << " " << seconds << " s\n";
-  std::cerr << summary.codes_line() << "\n" << summary.line() << "\nenvsift: wrote " << o.out << " (flags are for review, not automatic removal)\n";
+  report(run_screen(o), vm, o.out + " (flags are for review, not automatic removal)");
   return 0;
 }
 
