@@ -18,6 +18,7 @@
 #include "envsift/score/screen_taxa.hpp"
 #include "envsift/read/csv_reader.hpp"
 #include "envsift/write/csv_writer.hpp"
+#include "envsift/write/gis_writer.hpp"
 #include "envsift/write/taxon_summary.hpp"
 #include "envsift/write/value_format.hpp"
 #include "gather_values.hpp"
@@ -319,7 +320,19 @@ RunSummary run_screen(const ScreenOptions& o) {
 
   summary.warnings = g.warnings;
   CsvWriter out(o.out);
-  out.row(output_header(g, added));
+  const auto header = output_header(g, added);
+  out.row(header);
+  std::unique_ptr<GisWriter> gis;
+  if (!o.gis.empty()) {
+    // originals and words are text; sampled values and statistics are numbers; rank an integer
+    std::vector<FieldKind> kinds(header.size(), FieldKind::real);
+    for (std::size_t c = 0; c < g.table.columns.size(); ++c) kinds[c] = FieldKind::text;
+    for (std::size_t c = 0; c < header.size(); ++c) {
+      if (header[c] == "status" || header[c] == "flags" || header[c] == "reasons") kinds[c] = FieldKind::text;
+      if (header[c] == "rank") kinds[c] = FieldKind::integer;
+    }
+    gis = std::make_unique<GisWriter>(o.gis, header, kinds);
+  }
   std::vector<std::string> verdict;
   if (o.progress) o.progress->stage("writing", n, "records");
   for (std::size_t i : rows) {
@@ -342,6 +355,7 @@ RunSummary run_screen(const ScreenOptions& o) {
     row.push_back(rank[i] ? std::to_string(rank[i]) : "");
     row.insert(row.end(), verdict.begin() + 1, verdict.end());
     out.row(row);
+    if (gis) gis->add(row, g.table.records[i].longitude, g.table.records[i].latitude, g.radius_m[i]);
   }
 
   if (!o.summary.empty()) {
@@ -350,6 +364,7 @@ RunSummary run_screen(const ScreenOptions& o) {
     for (const auto& t : taxa) table.row(summary_rows.at(t.index));
     table.commit();
   }
+  if (gis) gis->commit();
   out.commit();
   lap("write");
   if (o.progress) o.progress->finish();

@@ -64,6 +64,7 @@ struct ScreenOptions : SampleOptions {
   RowOrder order = RowOrder::input;
   ElevationOptions elevation;
   std::string summary;                     // per-taxon summary CSV; empty = none
+  std::string gis;                         // GeoPackage or GeoJSON of all records; empty = none
   // Taxon shards for clusters: screen only the taxa whose stable hash modulo `shard_count` is
   // `shard_index`; every other record is written with status `other_shard`. `envsift merge`
   // combines the shards' outputs into exactly what one run writes.

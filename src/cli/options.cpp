@@ -6,6 +6,8 @@
 #include <algorithm>
 
 #include "envsift/errors.hpp"
+#include "envsift/write/run_manifest.hpp"
+#include <sstream>
 
 namespace envsift::cli {
 
@@ -53,6 +55,9 @@ void add_sampling_options(po::options_description& d, SampleOptions& o, bool lay
     ("gdal-config", po::value<std::vector<std::string>>()->multitoken()->value_name("KEY=VALUE..."),
      "GDAL configuration options, e.g. GDAL_HTTP_MAX_RETRY=3 for rasters read over HTTP "
      "(/vsicurl/https://...) or GDAL_NUM_THREADS=2 for decompression")
+    ("manifest", po::value<std::string>()->value_name("FILE.json"),
+     "also write a run manifest: envsift's version, the command line, every option value, each input's "
+     "size and SHA-256, each layer's CRS, size and nodata, the seed, threads and timings")
     ("quiet,q", po::bool_switch(), "no progress display")
     ("timings", po::bool_switch(), "print the time each stage took (and each test's CPU time)")
     ("help,h", "show this help");
@@ -111,6 +116,47 @@ void finish_sampling_options(const po::variables_map& vm, SampleOptions& o) {
     if (t < 1) throw UsageError("--threads must be at least 1");
     omp_set_num_threads(t);
   }
+}
+
+namespace {
+
+// An option's value as text, whatever its type.
+std::string text_of(const po::variable_value& v) {
+  const boost::any& a = v.value();
+  if (const auto* s = boost::any_cast<std::string>(&a)) return *s;
+  if (const auto* b = boost::any_cast<bool>(&a)) return *b ? "true" : "false";
+  if (const auto* i = boost::any_cast<int>(&a)) return std::to_string(*i);
+  if (const auto* z = boost::any_cast<std::size_t>(&a)) return std::to_string(*z);
+  if (const auto* u = boost::any_cast<std::uint64_t>(&a)) return std::to_string(*u);
+  if (const auto* d = boost::any_cast<double>(&a)) {
+    std::ostringstream out;
+    out << *d;
+    return out.str();
+  }
+  if (const auto* list = boost::any_cast<std::vector<std::string>>(&a)) {
+    std::string joined;
+    for (const auto& item : *list) joined += (joined.empty() ? "" : " ") + item;
+    return joined;
+  }
+  return "?";
+}
+
+}  // namespace
+
+void write_manifest_if_asked(const po::variables_map& vm, const std::string& command, int argc, char** argv,
+                             const SampleOptions& o, unsigned long long seed, const RunSummary& summary) {
+  if (!vm.count("manifest")) return;
+  RunManifest m;
+  m.command_line = "envsift " + command;
+  for (int i = 1; i < argc; ++i) m.command_line += std::string(" ") + argv[i];
+  for (const auto& [name, value] : vm) m.options.emplace_back(name, text_of(value));
+  m.points = o.points;
+  m.layers = o.layers;
+  m.assume_crs = o.assume_crs;
+  m.seed = seed;
+  m.threads = omp_get_max_threads();
+  m.seconds = summary.seconds;
+  write_manifest(vm["manifest"].as<std::string>(), m);
 }
 
 void report(const RunSummary& summary, const po::variables_map& vm, const std::string& wrote) {

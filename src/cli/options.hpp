@@ -24,6 +24,10 @@ bool parse(int argc, char** argv, const std::string& command, const std::string&
 // Applies the parsed values that need checking or conversion (method, delimiter, threads).
 void finish_sampling_options(const po::variables_map& vm, SampleOptions& o);
 
+// With --manifest FILE.json: writes the run manifest (command line, options, inputs, layers, times).
+void write_manifest_if_asked(const po::variables_map& vm, const std::string& command, int argc, char** argv,
+                             const SampleOptions& o, unsigned long long seed, const RunSummary& summary);
+
 // Warnings, timings (with --timings), reason-code counts and the record accounting, on stderr.
 void report(const RunSummary& summary, const po::variables_map& vm, const std::string& wrote);
 

@@ -19,7 +19,9 @@ int sample_command(int argc, char** argv) {
   finish_sampling_options(vm, o);
   ProgressDisplay progress;
   if (!vm["quiet"].as<bool>()) o.progress = &progress;
-  report(run_sample(o), vm, o.out);
+  const RunSummary summary = run_sample(o);
+  write_manifest_if_asked(vm, "sample", argc, argv, o, 0, summary);
+  report(summary, vm, o.out);
   return 0;
 }
 

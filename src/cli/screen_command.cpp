@@ -65,6 +65,9 @@ int screen_command(int argc, char** argv) {
      "reported minimum elevation (metres, or with a unit: '1200 m', '3900 ft')")
     ("max-elevation-column", po::value(&o.reader.columns.max_elevation)->default_value(o.reader.columns.max_elevation)->value_name("NAME"),
      "reported maximum elevation")
+    ("gis", po::value(&o.gis)->value_name("FILE.gpkg|FILE.geojson"),
+     "also write every record as a point with all its attributes, for a desktop GIS; a GeoPackage also "
+     "gets a layer of the uncertainty discs (polygons)")
     ("summary", po::value(&o.summary)->value_name("FILE.csv"),
      "also write one row per taxon: records, judged, flagged per test and, with --dem, the taxon's robust "
      "elevation band (median ± z-cutoff robust SD over distinct cells) and the records outside it")
@@ -108,7 +111,9 @@ int screen_command(int argc, char** argv) {
       throw UsageError("--shard I/N needs 0 <= I < N, not '" + text + "'");
   }
   if (!(o.elevation.tolerance_m > 0)) throw UsageError("--elevation-tolerance must be a positive number of metres");
-  report(run_screen(o), vm, o.out + " (flags are for review, not automatic removal)");
+  const RunSummary summary = run_screen(o);
+  write_manifest_if_asked(vm, "screen", argc, argv, o, o.seed, summary);
+  report(summary, vm, o.out + " (flags are for review, not automatic removal)");
   return 0;
 }
 

@@ -41,6 +41,9 @@ extern "C" void on_signal(int signal) {
 
 }  // namespace
 
+int remember_partial_output(const std::string& temporary_path) { return remember_partial(temporary_path); }
+void forget_partial_output(int slot) { forget_partial(slot); }
+
 void remove_partial_outputs_on_signal() {
   for (int s : {SIGINT, SIGTERM, SIGHUP})
     if (std::signal(s, on_signal) == SIG_IGN) std::signal(s, SIG_IGN);  // keep what nohup & co. ignore
@@ -87,6 +90,11 @@ void CsvWriter::row(const std::vector<std::string>& fields) {
   }
   buffer_ += '\n';
   if (std::fwrite(buffer_.data(), 1, buffer_.size(), file_) != buffer_.size())
+    throw OutputError(path_, std::string("write failed (") + std::strerror(errno) + ")");
+}
+
+void CsvWriter::write_text(const std::string& text) {
+  if (std::fwrite(text.data(), 1, text.size(), file_) != text.size())
     throw OutputError(path_, std::string("write failed (") + std::strerror(errno) + ")");
 }
 

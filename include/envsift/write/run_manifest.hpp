@@ -1,0 +1,29 @@
+// The run manifest (`--manifest FILE.json`): what a reviewer or a later reader needs to know and
+// repeat a run — envsift's version, the command line and every option value, each input file's
+// path, size and SHA-256, each layer's CRS, size and nodata, the seed, the threads and the time
+// each stage took.
+#pragma once
+#include <string>
+#include <utility>
+#include <vector>
+
+namespace envsift {
+
+struct RunManifest {
+  std::string command_line;
+  std::vector<std::pair<std::string, std::string>> options;  // name → value, as given or defaulted
+  std::string points;                                        // the points file
+  std::vector<std::string> layers;                           // layer arguments (paths or NAME=PATH)
+  std::string assume_crs;
+  unsigned long long seed = 0;
+  int threads = 1;
+  std::vector<std::pair<std::string, double>> seconds;       // time per stage
+};
+
+// Writes the manifest as JSON (atomically, like every output).
+void write_manifest(const std::string& path, const RunManifest& manifest);
+
+// Lower-case hex SHA-256 of a file's bytes (FIPS 180-4, computed by OpenSSL).
+std::string sha256_of_file(const std::string& path);
+
+}  // namespace envsift
