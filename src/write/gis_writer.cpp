@@ -15,19 +15,12 @@
 namespace envsift {
 namespace {
 
-constexpr double kDegree = 3.14159265358979323846 / 180.0;
-
-// A disc as a polygon of 72 points at `radius_m` along great circles from the centre (the
-// spherical destination formula; Sinnott-style sphere of radius 6 371 008.8 m).
+// A disc as a polygon of 72 points at `radius_m` along great circles from its centre.
 OGRPolygon disc_polygon(double lon, double lat, double radius_m) {
   OGRLinearRing ring;
-  const double d = radius_m / kEarthRadiusM, phi1 = lat * kDegree, lambda1 = lon * kDegree;
   for (int k = 0; k <= 72; ++k) {
-    const double theta = (k % 72) * 5.0 * kDegree;
-    const double phi2 = std::asin(std::sin(phi1) * std::cos(d) + std::cos(phi1) * std::sin(d) * std::cos(theta));
-    const double lambda2 = lambda1 + std::atan2(std::sin(theta) * std::sin(d) * std::cos(phi1),
-                                                std::cos(d) - std::sin(phi1) * std::sin(phi2));
-    ring.addPoint(lambda2 / kDegree, phi2 / kDegree);
+    const auto [x, y] = destination(lon, lat, (k % 72) * 5.0, radius_m);
+    ring.addPoint(x, y);
   }
   OGRPolygon polygon;
   polygon.addRing(&ring);

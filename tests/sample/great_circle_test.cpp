@@ -47,5 +47,31 @@ TEST(GreatCircle, MatchesGeodOnTheSameSphere) {
   }
 }
 
+// Disc outlines (GIS output): each destination point lies at the radius and azimuth asked, as
+// PROJ's geod measures them on the same sphere.
+TEST(GreatCircle, DestinationsMatchGeod) {
+  const auto dir = temp_dir("destination");
+  std::ostringstream in;
+  in.precision(15);
+  std::vector<std::array<double, 4>> cases;  // lon, lat, azimuth, distance
+  for (double lat : {0.0, 45.0, -70.0})
+    for (double azimuth : {0.0, 35.0, 90.0, 200.0, 315.0})
+      for (double distance : {1000.0, 25000.0, 500000.0}) cases.push_back({10.0, lat, azimuth, distance});
+  for (const auto& c : cases) {
+    const auto [lon2, lat2] = destination(c[0], c[1], c[2], c[3]);
+    in << c[1] << " " << c[0] << " " << lat2 << " " << lon2 << "\n";
+  }
+  write_file(dir + "/pairs.txt", in.str());
+  auto r = run("geod +a=6371008.8 +es=0 -I -f %.9f -F %.6f < " + dir + "/pairs.txt");
+  ASSERT_EQ(r.exit_code, 0) << r.output;
+  std::istringstream out(r.output);
+  for (const auto& c : cases) {
+    double az1, az2, d;
+    ASSERT_TRUE(out >> az1 >> az2 >> d);
+    EXPECT_NEAR(d, c[3], 1e-3);
+    EXPECT_NEAR(std::remainder(az1 - c[2], 360.0), 0.0, 1e-6) << c[2];
+  }
+}
+
 }  // namespace
 }  // namespace envsift

@@ -1,5 +1,6 @@
 // Distances on a spherical Earth, for uncertainty discs.
 #pragma once
+#include <utility>
 
 namespace envsift {
 
@@ -11,5 +12,9 @@ constexpr double kEarthRadiusM = 6371008.8;
 // haversine formula, which stays accurate for small distances (Sinnott 1984, Sky and Telescope
 // 68:159).
 double great_circle_m(double lon1, double lat1, double lon2, double lat2);
+
+// The point `distance_m` from (lon, lat) along the great circle leaving at `azimuth_deg`
+// (clockwise from north), on the same sphere: the destination formula.
+std::pair<double, double> destination(double lon, double lat, double azimuth_deg, double distance_m);
 
 }  // namespace envsift
