@@ -2,6 +2,7 @@
 // (`geod +a=6371008.8 +es=0 -I`), and a worked haversine example.
 #include "envsift/sample/great_circle.hpp"
 
+#include <array>
 #include <cmath>
 #include <random>
 #include <sstream>
