@@ -1,4 +1,5 @@
-// Atomic outputs: a run interrupted at the last moment — its output finished in the temporary
+// envsift's own contract (no outside reference; exit statuses 128 + signal are POSIX shell
+// convention). Atomic outputs: a run interrupted at the last moment — its output finished in the temporary
 // file, not yet renamed (held there by the ENVSIFT_TEST_PAUSE_BEFORE_COMMIT test hook) — leaves
 // no file under the final name and no temporary file. Exit status: killed by the signal.
 #include <chrono>

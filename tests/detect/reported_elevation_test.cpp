@@ -1,4 +1,6 @@
-// Reported elevation against the DEM range, in metres and in feet (1 ft = 0.3048 m exactly).
+// Reported elevation against the DEM range, in metres and in feet (1 ft = 0.3048 m exactly:
+// International Yard and Pound Agreement, 1959; NIST Special Publication 811, appendix B).
+// Expected gaps are hand-computed from the numbers in each test.
 #include "envsift/detect/reported_elevation.hpp"
 
 #include <gtest/gtest.h>

@@ -1,4 +1,5 @@
-// End to end on the demo data: the planted errors listed in demo-points/truth.csv (written by
+// Invented demo data (scripts/make-demo-data.py), so no outside reference beyond the samples, which
+// tests/sample/nearest_vs_gdal_test.cpp checks against gdallocationinfo. End to end on the demo data: the planted errors listed in demo-points/truth.csv (written by
 // scripts/make-demo-data.py when it planted them) are the top-ranked records, and every input
 // record appears exactly once in the output.
 #include <algorithm>

@@ -1,3 +1,4 @@
+// envsift's own contract, checked against envsift itself (a single run is the reference).
 // Taxon shards: screening shards 0..N-1 and merging them gives, byte for byte, what one run
 // writes (N = 1, 3, 7), on the demo data with every test, discs and the elevation check.
 #include <gtest/gtest.h>

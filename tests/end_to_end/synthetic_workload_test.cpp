@@ -1,4 +1,5 @@
-// The synthetic clustered workload of the benchmark tool (60 000 records in 40 taxa of skewed
+// envsift's own contract, checked against envsift itself (the unlimited, two-thread run is the
+// reference). The synthetic clustered workload of the benchmark tool (60 000 records in 40 taxa of skewed
 // sizes over the demo island — large taxa take FAST-MCD's nested-subset path): a small
 // --memory-limit (sampling in chunks, a 1 MB block cache that must evict and re-read) and the
 // thread count change nothing in the output.

@@ -1,7 +1,8 @@
 // Uncertainty on the demo island (planted records listed in demo-points/truth.csv): the montane
 // record placed in the dry valley east of the ridge is flagged when its uncertainty is small, and
 // not when its uncertainty disc reaches the ridge (about 34 km west: 0.31° of longitude at
-// latitude 0.33°, 111.2 km per degree).
+// latitude 0.33°, 111.2 km per degree on the 6 371 008.8 m sphere — hand-computed; disc values
+// themselves are checked against gdallocationinfo and geod in tests/sample/disc_sampling_test.cpp).
 #include <gtest/gtest.h>
 
 #include "../support.hpp"
