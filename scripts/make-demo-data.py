@@ -57,7 +57,7 @@ def in_lake(lon, lat):
     return (lon - LAKE[0]) ** 2 + (lat - LAKE[1]) ** 2 < LAKE[2] ** 2
 
 
-def write_geographic(name, dtype, west, north, res, cols, rows, values, nodata, scale=None):
+def write_geographic(name, dtype, west, north, res, cols, rows, values, nodata, unit, scale=None):
     path = os.path.join(RASTERS, name)
     ds = gdal.GetDriverByName("GTiff").Create(
         path, cols, rows, 1, dtype,
@@ -68,6 +68,7 @@ def write_geographic(name, dtype, west, north, res, cols, rows, values, nodata, 
     ds.SetProjection(srs.ExportToWkt())
     band = ds.GetRasterBand(1)
     band.SetNoDataValue(nodata)
+    band.SetUnitType(unit)
     if scale is not None:
         band.SetScale(scale)
         band.SetOffset(0.0)
@@ -86,17 +87,17 @@ def make_rasters():
     lon, lat = centres(-1.0, 1.0, 0.005, 400, 400)
     dem = np.round(elevation(lon, lat)).astype(np.int16)
     dem[in_lake(lon, lat)] = -32768
-    write_geographic("dem.tif", gdal.GDT_Int16, -1.0, 1.0, 0.005, 400, 400, dem, -32768)
+    write_geographic("dem.tif", gdal.GDT_Int16, -1.0, 1.0, 0.005, 400, 400, dem, -32768, "m")
 
     lon, lat = centres(-1.0, 1.0, 0.01, 200, 200)
     t = np.round(temperature(lon, lat) * 10).astype(np.int16)
     t[in_lake(lon, lat)] = -9999
-    write_geographic("temperature.tif", gdal.GDT_Int16, -1.0, 1.0, 0.01, 200, 200, t, -9999, scale=0.1)
+    write_geographic("temperature.tif", gdal.GDT_Int16, -1.0, 1.0, 0.01, 200, 200, t, -9999, "°C", scale=0.1)
 
     lon, lat = centres(-1.1, 1.1, 0.0125, 176, 176)
     dry = np.clip(np.round(12 - rainfall(lon, lat) / 150), 0, 12).astype(np.uint8)
     dry[in_lake(lon, lat)] = 255
-    write_geographic("dry_months.tif", gdal.GDT_Byte, -1.1, 1.1, 0.0125, 176, 176, dry, 255)
+    write_geographic("dry_months.tif", gdal.GDT_Byte, -1.1, 1.1, 0.0125, 176, 176, dry, 255, "months")
 
     # Rainfall on a projected grid: UTM zone 31N, 1 km cells, covering the island.
     utm = osr.SpatialReference()
@@ -121,6 +122,7 @@ def make_rasters():
     ds.SetGeoTransform((west, res, 0, north, 0, -res))
     ds.SetProjection(utm.ExportToWkt())
     ds.GetRasterBand(1).SetNoDataValue(-1)
+    ds.GetRasterBand(1).SetUnitType("mm")
     ds.GetRasterBand(1).WriteArray(rain)
     ds = None
 

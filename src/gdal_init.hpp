@@ -9,3 +9,13 @@ inline void ensure_gdal_registered() {
   std::call_once(once, [] { GDALAllRegister(); });
 }
 }  // namespace envsift
+
+namespace envsift {
+// While alive, GDAL errors on this thread are silent (for reads whose failure is handled).
+struct QuietGdalErrors {
+  QuietGdalErrors() { CPLPushErrorHandler(CPLQuietErrorHandler); }
+  ~QuietGdalErrors() { CPLPopErrorHandler(); }
+  QuietGdalErrors(const QuietGdalErrors&) = delete;
+  QuietGdalErrors& operator=(const QuietGdalErrors&) = delete;
+};
+}  // namespace envsift

@@ -22,6 +22,7 @@
 #include "envsift/write/taxon_summary.hpp"
 #include "envsift/write/value_format.hpp"
 #include "gather_values.hpp"
+#include "report_builder.hpp"
 
 namespace envsift {
 namespace {
@@ -264,6 +265,8 @@ RunSummary run_screen(const ScreenOptions& o) {
     columns.insert(columns.begin(), join(codes, ";"));
     return v;
   };
+  std::unique_ptr<detail::ReportBuilder> report;
+  if (!o.report.empty()) report = std::make_unique<detail::ReportBuilder>(o, g, detectors);
   std::vector<double> test_seconds;
   std::size_t eligible_taxa = 0;
   {
@@ -287,6 +290,7 @@ RunSummary run_screen(const ScreenOptions& o) {
           results.append(columns);
           result_of[i] = results.size() - 1;
         }
+        if (report) report->taxon(taxon, verdicts);
         if (!o.summary.empty()) {
           auto row = taxon_summary_row(taxon, verdicts, names, check_elevation ? &band : nullptr);
           std::lock_guard<std::mutex> lock(results_lock);
@@ -356,6 +360,7 @@ RunSummary run_screen(const ScreenOptions& o) {
     row.insert(row.end(), verdict.begin() + 1, verdict.end());
     out.row(row);
     if (gis) gis->add(row, g.table.records[i].longitude, g.table.records[i].latitude, g.radius_m[i]);
+    if (report) report->written(i, rank[i], verdict[1], verdict[2], verdict[3]);
   }
 
   if (!o.summary.empty()) {
@@ -365,8 +370,12 @@ RunSummary run_screen(const ScreenOptions& o) {
     table.commit();
   }
   if (gis) gis->commit();
-  out.commit();
   lap("write");
+  if (report) {
+    report->finish(summary);
+    lap("report");
+  }
+  out.commit();
   if (o.progress) o.progress->finish();
   return summary;
 }

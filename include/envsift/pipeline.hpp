@@ -3,6 +3,7 @@
 #pragma once
 #include <cstddef>
 #include <cstdint>
+#include <functional>
 #include <map>
 #include <string>
 #include <vector>
@@ -51,6 +52,8 @@ enum class RowOrder { input, rank };
 // Every test envsift knows, in the order their columns are written.
 const std::vector<std::string>& all_test_names();
 
+struct RunSummary;
+
 struct ScreenOptions : SampleOptions {
   std::vector<std::string> tests = all_test_names();
   RobustZOptions robust_z;
@@ -65,6 +68,9 @@ struct ScreenOptions : SampleOptions {
   ElevationOptions elevation;
   std::string summary;                     // per-taxon summary CSV; empty = none
   std::string gis;                         // GeoPackage or GeoJSON of all records; empty = none
+  std::string report;                      // HTML report; empty = none
+  // The run manifest as JSON, for the report (called once, at the end, with the run's summary).
+  std::function<std::string(const RunSummary&)> manifest_json;
   // Taxon shards for clusters: screen only the taxa whose stable hash modulo `shard_count` is
   // `shard_index`; every other record is written with status `other_shard`. `envsift merge`
   // combines the shards' outputs into exactly what one run writes.

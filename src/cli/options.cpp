@@ -143,9 +143,8 @@ std::string text_of(const po::variable_value& v) {
 
 }  // namespace
 
-void write_manifest_if_asked(const po::variables_map& vm, const std::string& command, int argc, char** argv,
-                             const SampleOptions& o, unsigned long long seed, const RunSummary& summary) {
-  if (!vm.count("manifest")) return;
+RunManifest make_manifest(const po::variables_map& vm, const std::string& command, int argc, char** argv,
+                          const SampleOptions& o, unsigned long long seed, const RunSummary& summary) {
   RunManifest m;
   m.command_line = "envsift " + command;
   for (int i = 1; i < argc; ++i) m.command_line += std::string(" ") + argv[i];
@@ -156,7 +155,12 @@ void write_manifest_if_asked(const po::variables_map& vm, const std::string& com
   m.seed = seed;
   m.threads = omp_get_max_threads();
   m.seconds = summary.seconds;
-  write_manifest(vm["manifest"].as<std::string>(), m);
+  return m;
+}
+
+void write_manifest_if_asked(const po::variables_map& vm, const std::string& command, int argc, char** argv,
+                             const SampleOptions& o, unsigned long long seed, const RunSummary& summary) {
+  if (vm.count("manifest")) write_manifest(vm["manifest"].as<std::string>(), make_manifest(vm, command, argc, argv, o, seed, summary));
 }
 
 void report(const RunSummary& summary, const po::variables_map& vm, const std::string& wrote) {

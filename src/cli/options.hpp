@@ -5,6 +5,7 @@
 #include <vector>
 
 #include "envsift/pipeline.hpp"
+#include "envsift/write/run_manifest.hpp"
 
 namespace envsift::cli {
 
@@ -24,7 +25,10 @@ bool parse(int argc, char** argv, const std::string& command, const std::string&
 // Applies the parsed values that need checking or conversion (method, delimiter, threads).
 void finish_sampling_options(const po::variables_map& vm, SampleOptions& o);
 
-// With --manifest FILE.json: writes the run manifest (command line, options, inputs, layers, times).
+// The run manifest (command line, options, inputs, layers, times) of this run.
+RunManifest make_manifest(const po::variables_map& vm, const std::string& command, int argc, char** argv,
+                          const SampleOptions& o, unsigned long long seed, const RunSummary& summary);
+// With --manifest FILE.json: writes the run manifest.
 void write_manifest_if_asked(const po::variables_map& vm, const std::string& command, int argc, char** argv,
                              const SampleOptions& o, unsigned long long seed, const RunSummary& summary);
 

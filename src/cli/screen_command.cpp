@@ -68,6 +68,10 @@ int screen_command(int argc, char** argv) {
     ("gis", po::value(&o.gis)->value_name("FILE.gpkg|FILE.geojson"),
      "also write every record as a point with all its attributes, for a desktop GIS; a GeoPackage also "
      "gets a layer of the uncertainty discs (polygons)")
+    ("report", po::value(&o.report)->value_name("FILE.html"),
+     "also write an HTML report for reviewers: one self-contained file (no network, no scripts) with the run "
+     "overview, the top suspects, and per taxon its suspects, a map (shaded relief from --dem) and plots of "
+     "its values with the cutoffs")
     ("summary", po::value(&o.summary)->value_name("FILE.csv"),
      "also write one row per taxon: records, judged, flagged per test and, with --dem, the taxon's robust "
      "elevation band (median ± z-cutoff robust SD over distinct cells) and the records outside it")
@@ -111,6 +115,9 @@ int screen_command(int argc, char** argv) {
       throw UsageError("--shard I/N needs 0 <= I < N, not '" + text + "'");
   }
   if (!(o.elevation.tolerance_m > 0)) throw UsageError("--elevation-tolerance must be a positive number of metres");
+  o.manifest_json = [&](const RunSummary& s) {
+    return manifest_json(make_manifest(vm, "screen", argc, argv, o, o.seed, s));
+  };
   const RunSummary summary = run_screen(o);
   write_manifest_if_asked(vm, "screen", argc, argv, o, o.seed, summary);
   report(summary, vm, o.out + " (flags are for review, not automatic removal)");

@@ -6,6 +6,16 @@
 
 namespace envsift {
 
+std::optional<std::pair<double, double>> PerLayerTest::accepted_range(std::vector<double> reference,
+                                                                     const std::string& layer) const {
+  reference.erase(std::remove_if(reference.begin(), reference.end(), [](double v) { return !std::isfinite(v); }),
+                  reference.end());
+  if (reference.size() < min_records_) return std::nullopt;
+  const auto prepared = prepare(std::move(reference), layer);
+  if (!prepared) return std::nullopt;
+  return prepared->accepted();
+}
+
 std::vector<Finding> PerLayerTest::judge(const TaxonValues& taxon) const {
   const auto rows = static_cast<std::size_t>(taxon.records.rows());
   std::vector<Finding> findings(rows);

@@ -95,6 +95,17 @@ class JackknifeLayerJudge : public PerLayerTest::Layer {
     return v;
   }
   double centre() const override { return j_.mean; }
+  // The innermost value with a gap above the threshold on each side: it and everything beyond
+  // it are flagged, values strictly between the two are not.
+  std::pair<double, double> accepted() const override {
+    double low = std::nan(""), high = std::nan("");
+    for (std::size_t i = 0; i < j_.sorted.size(); ++i)
+      if (j_.gap[i] > j_.threshold) {
+        if (j_.sorted[i] < j_.mean) low = j_.sorted[i];
+        else if (std::isnan(high)) high = j_.sorted[i];
+      }
+    return {low, high};
+  }
 
  private:
   JackknifeLayer j_;

@@ -75,6 +75,9 @@ class RobustZLayer : public PerLayerTest::Layer {
     return v;
   }
   double centre() const override { return spread_.median; }
+  std::pair<double, double> accepted() const override {
+    return {spread_.median - cutoff_ * spread_.spread, spread_.median + cutoff_ * spread_.spread};
+  }
 
  private:
   RobustSpread spread_;

@@ -46,7 +46,7 @@ nlohmann::json file_entry(const std::string& path) {
 
 }  // namespace
 
-void write_manifest(const std::string& path, const RunManifest& m) {
+std::string manifest_json(const RunManifest& m) {
   nlohmann::ordered_json j;
   j["envsift_version"] = ENVSIFT_VERSION;
   j["command_line"] = m.command_line;
@@ -78,9 +78,12 @@ void write_manifest(const std::string& path, const RunManifest& m) {
   nlohmann::ordered_json seconds = nlohmann::ordered_json::object();
   for (const auto& [stage, s] : m.seconds) seconds[stage] = s;
   j["seconds"] = seconds;
+  return j.dump(2) + "\n";
+}
 
+void write_manifest(const std::string& path, const RunManifest& m) {
   CsvWriter out(path);  // the atomic writer, used for one text blob
-  out.write_text(j.dump(2) + "\n");
+  out.write_text(manifest_json(m));
   out.commit();
 }
 

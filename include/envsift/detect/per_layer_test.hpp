@@ -4,6 +4,8 @@
 #pragma once
 #include <cstddef>
 #include <memory>
+#include <optional>
+#include <utility>
 #include <string>
 #include <vector>
 
@@ -29,7 +31,14 @@ class PerLayerTest : public Detector {
     // The value that fits best; within a disc, the value closest to it is judged (the test's
     // statistic grows with the distance from it on either side).
     virtual double centre() const = 0;
+    // Where flagging starts on each side, for plots: values between low and high are not flagged
+    // (NaN: no bound on that side; reverse jackknife flags the bounds themselves).
+    virtual std::pair<double, double> accepted() const = 0;
   };
+
+  // The accepted range on one layer from its reference values (as judge() prepares it); nothing
+  // when the layer could not be judged (too few values, no spread).
+  std::optional<std::pair<double, double>> accepted_range(std::vector<double> reference, const std::string& layer) const;
 
  protected:
   explicit PerLayerTest(std::size_t min_records) : min_records_(min_records) {}

@@ -20,6 +20,8 @@ struct RunManifest {
   std::vector<std::pair<std::string, double>> seconds;       // time per stage
 };
 
+// The manifest as JSON text (also embedded in the HTML report).
+std::string manifest_json(const RunManifest& manifest);
 // Writes the manifest as JSON (atomically, like every output).
 void write_manifest(const std::string& path, const RunManifest& manifest);
 

@@ -1,0 +1,68 @@
+// The pictures of one taxon in the HTML report, each a standalone SVG document:
+//   - per layer, a histogram of the taxon's reference values with the one-layer tests' cutoffs
+//     and every suspect marked (its uncertainty disc's range as a bar);
+//   - the two layers on which the suspects stand out most, with the robust 97.5 % tolerance
+//     ellipse (reweighted FAST-MCD centre and scatter of those two layers, χ²₂ quantile);
+//   - a longitude/latitude map of the taxon's records, over shaded relief when a DEM is given.
+// Every suspect appears in every picture: as a mark, or as a note when it has no value there.
+#pragma once
+#include <cstddef>
+#include <cstdint>
+#include <optional>
+#include <string>
+#include <utility>
+#include <vector>
+
+#include <Eigen/Core>
+
+namespace envsift {
+
+struct PlotLayer {
+  std::string name, unit;                                 // unit may be empty
+  std::optional<std::pair<double, double>> robust_z;      // where robust z starts flagging
+  std::optional<std::pair<double, double>> jackknife;     // where the reverse jackknife does
+};
+
+struct PlotRecord {
+  std::string label;          // record ID (or "line N")
+  double longitude = 0, latitude = 0;  // NaN when unknown
+  std::vector<double> value;  // per layer, NaN = none
+  std::vector<double> low, high;  // per layer: the disc's range (equal to value without a disc)
+  bool suspect = false;
+  double score = 0;
+  std::string reasons;        // the verdict's words
+};
+
+struct TaxonPicture {
+  std::string taxon;
+  std::vector<PlotLayer> layers;
+  Eigen::MatrixXd reference;       // rows the statistics came from × layers (NaN = none)
+  std::string reference_label;     // what a reference row is, e.g. "distinct cells"
+  std::vector<PlotRecord> records; // every record of the taxon; suspects in order of score
+};
+
+std::string distribution_plot(const TaxonPicture& taxon, std::size_t layer);
+
+struct LayerPair {
+  std::size_t a = 0, b = 1;
+  bool has_ellipse = false;
+  Eigen::Vector2d center = Eigen::Vector2d::Zero();
+  Eigen::Matrix2d scatter = Eigen::Matrix2d::Identity();
+};
+// The two layers on which the suspects lie furthest out (largest mean |robust z|), and the robust
+// ellipse of the reference rows on them (none with fewer than `min_rows` complete rows).
+// Needs at least two layers.
+LayerPair choose_pair(const TaxonPicture& taxon, std::uint64_t seed, std::size_t min_rows);
+std::string pair_plot(const TaxonPicture& taxon, const LayerPair& pair);
+
+struct MapBox {
+  double west = 0, east = 0, south = 0, north = 0;
+  int width = 0, height = 0;  // pixels of the map area
+};
+// The extent of the taxon's records with a margin, and a pixel size that keeps distances true
+// at its middle latitude; nothing when no record has coordinates.
+std::optional<MapBox> map_box(const TaxonPicture& taxon);
+// `relief_png`: a PNG (raw bytes) covering `box` exactly, or empty.
+std::string map_plot(const TaxonPicture& taxon, const MapBox& box, const std::string& relief_png);
+
+}  // namespace envsift

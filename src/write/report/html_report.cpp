@@ -1,0 +1,181 @@
+#include "envsift/write/report/html_report.hpp"
+
+#include <cmath>
+#include <cstdio>
+
+#include "envsift/write/csv_writer.hpp"
+#include "envsift/write/value_format.hpp"
+#include "envsift/write/report/shaded_relief.hpp"
+#include "envsift/write/report/svg_canvas.hpp"
+
+namespace envsift {
+namespace {
+
+using svg::escape;
+
+// No request may leave the file: only inline styles and data: images are allowed.
+const char* kHead =
+    "<!DOCTYPE html>\n<html lang=\"en\"><head><meta charset=\"utf-8\">"
+    "<meta http-equiv=\"Content-Security-Policy\" content=\"default-src 'none'; img-src data:; style-src 'unsafe-inline'\">"
+    "<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">";
+
+const char* kStyle =
+    "<style>"
+    "body{font-family:'DejaVu Sans',Arial,sans-serif;margin:0 auto;max-width:1400px;padding:0 1.2em 3em;color:#111;"
+    "line-height:1.4}"
+    "h1{margin:.6em 0 .2em}h2{border-bottom:2px solid #0072B2;padding-bottom:.15em;margin-top:1.6em}"
+    ".caution{border:2px solid #D55E00;background:#fff4ec;padding:.6em 1em;margin:1em 0;font-size:1.05em}"
+    "table{border-collapse:collapse;margin:.5em 0;font-size:.9em}th,td{border:1px solid #bbb;padding:.2em .5em;"
+    "vertical-align:top;text-align:left}th{background:#eee}td.n{text-align:right;font-variant-numeric:tabular-nums}"
+    ".taxon{content-visibility:auto;contain-intrinsic-size:auto 1400px;margin-top:2em}"
+    ".pictures{display:flex;flex-wrap:wrap;gap:8px}.pictures img{border:1px solid #ccc;max-width:100%;height:auto}"
+    ".note{color:#444}.flagged{font-weight:bold}"
+    "pre{background:#f6f6f6;padding:.6em;overflow:auto;font-size:.8em}"
+    "nav a{margin-right:1em}"
+    "</style>";
+
+std::string cell(const std::string& text, bool number = false) {
+  return std::string(number ? "<td class=\"n\">" : "<td>") + escape(text) + "</td>";
+}
+
+std::string img(const std::string& svg_document, const std::string& alt, int width, int height) {
+  return "<img loading=\"lazy\" decoding=\"async\" width=\"" + std::to_string(width) + "\" height=\"" +
+         std::to_string(height) + "\" alt=\"" + escape(alt) + "\" src=\"" +
+         svg::data_uri("image/svg+xml", svg_document) + "\">";
+}
+
+// "a;b" → "a; b", so that a list of test names can wrap
+std::string spaced(const std::string& list) {
+  std::string out;
+  for (char c : list) out += c == ';' ? std::string("; ") : std::string(1, c);
+  return out;
+}
+
+std::string value_text(double v) { return std::isfinite(v) ? svg::number(v) : ""; }
+
+// The pixel size written in an SVG document's root element.
+std::pair<int, int> svg_size(const std::string& document) {
+  double w = 0, h = 0;
+  std::sscanf(document.c_str(), "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"%lf\" height=\"%lf\"", &w, &h);
+  return {static_cast<int>(w), static_cast<int>(h)};
+}
+
+std::string picture(const std::string& document, const std::string& alt) {
+  const auto [w, h] = svg_size(document);
+  return img(document, alt, w, h);
+}
+
+}  // namespace
+
+std::string taxon_anchor(std::size_t index) { return "taxon-" + std::to_string(index); }
+
+HtmlReport::HtmlReport(std::string path, ReliefSource relief, std::uint64_t seed, std::size_t min_rows)
+    : path_(std::move(path)), relief_(std::move(relief)), seed_(seed), min_rows_(min_rows) {}
+
+void HtmlReport::add_taxon(std::size_t index, const TaxonPicture& t, std::size_t judged) {
+  std::size_t suspects = 0;
+  for (const auto& r : t.records) suspects += r.suspect;
+  std::string s = "<section class=\"taxon\" id=\"" + taxon_anchor(index) + "\"><h2><i>" + escape(t.taxon) + "</i></h2>";
+  s += "<p>" + std::to_string(t.records.size()) + " records, " + std::to_string(judged) + " judged, <span class=\"flagged\">" +
+       std::to_string(suspects) + " suspect</span>; statistics from " + std::to_string(t.reference.rows()) + " " +
+       escape(t.reference_label) + ". <a href=\"#index\">back to the index</a></p>";
+  s += "<div class=\"pictures\">";
+  if (const auto box = map_box(t)) {
+    const std::string relief = relief_.path.empty() ? "" : shaded_relief_png(relief_.path, relief_.band, *box);
+    s += picture(map_plot(t, *box, relief), "map of the records of " + t.taxon + ", suspects marked");
+  }
+  if (suspects > 0) {
+    if (t.layers.size() >= 2)
+      s += picture(pair_plot(t, choose_pair(t, seed_, min_rows_)), "two layers with the robust tolerance ellipse");
+    for (std::size_t l = 0; l < t.layers.size(); ++l)
+      s += picture(distribution_plot(t, l), t.layers[l].name + " distribution with cutoffs and suspects");
+  } else {
+    s += "<p class=\"note\">No suspect: the layer plots are left out to keep the report small.</p>";
+  }
+  s += "</div>";
+  if (suspects > 0) {
+    s += "<p class=\"note\">Triangles: suspects (the worst labelled by ID; a black bar spans a record's values within "
+         "its uncertainty disc). Grey: the " + escape(t.reference_label) + " the taxon's statistics come from. Blue dashed "
+         "lines: where robust z starts flagging; vermillion dotted: the reverse jackknife's cut. Green ellipse: 97.5 % of "
+         "the taxon's robust (FAST-MCD) bivariate normal.</p>";
+    s += "<table><tr><th>record</th><th>score</th><th>reasons</th>";
+    for (const auto& l : t.layers) s += "<th>" + escape(l.name) + "</th>";
+    s += "</tr>";
+    for (const auto& r : t.records) {
+      if (!r.suspect) continue;
+      s += "<tr>" + cell(r.label) + cell(format_score(r.score), true) + cell(r.reasons);
+      for (std::size_t l = 0; l < t.layers.size(); ++l) s += cell(value_text(r.value[l]), true);
+      s += "</tr>";
+    }
+    s += "</table>";
+  }
+  s += "</section>\n";
+  std::lock_guard<std::mutex> guard(lock_);
+  sections_.append({s});
+  taxa_[index] = {t.taxon, t.records.size(), judged, suspects, sections_.size() - 1};
+}
+
+void HtmlReport::finish(const ReportOverview& o) {
+  CsvWriter out(path_);  // the atomic writer, for one text document
+  std::string s = kHead;
+  s += "<title>" + escape(o.title) + "</title>" + kStyle + "</head><body>";
+  s += "<h1>" + escape(o.title) + "</h1>";
+  s += "<nav><a href=\"#overview\">Run</a><a href=\"#suspects\">Top suspects</a><a href=\"#index\">Taxa</a>"
+       "<a href=\"#manifest\">Manifest</a></nav>";
+  s += "<p class=\"caution\"><b>Flags are reasons to look, not proof of error.</b> A suspect record may be a "
+       "georeferencing slip, a mislabelled specimen, a vagrant, or a genuine record at the edge of its taxon's "
+       "range. Review each one before acting: removing records changes model results, and removing true edge "
+       "records narrows the niche a model learns.</p>";
+  s += "<h2 id=\"overview\">Run</h2><table>";
+  for (const auto& [what, value] : o.inputs) s += "<tr><th>" + escape(what) + "</th>" + cell(value) + "</tr>";
+  s += "</table><p>Tests:</p><ul>";
+  for (const auto& t : o.tests) s += "<li>" + escape(t) + "</li>";
+  s += "</ul><table><tr><th>records read</th><th>scored</th><th>flagged</th><th>not scored</th></tr><tr>" +
+       cell(std::to_string(o.read), true) + cell(std::to_string(o.scored), true) +
+       cell(std::to_string(o.flagged), true) + cell(std::to_string(o.read - o.scored), true) + "</tr></table>";
+  if (!o.not_scored.empty()) {
+    s += "<p>Records not scored, by their first reason (each is in the output with its reasons):</p><table>"
+         "<tr><th>reason</th><th>records</th></tr>";
+    for (const auto& [code, count] : o.not_scored) s += "<tr>" + cell(code) + cell(std::to_string(count), true) + "</tr>";
+    s += "</table>";
+  }
+  if (!o.codes.empty()) {
+    s += "<details><summary>Every reason code and its count</summary><table>";
+    for (const auto& [code, count] : o.codes) s += "<tr>" + cell(code) + cell(std::to_string(count), true) + "</tr>";
+    s += "</table></details>";
+  }
+  for (const auto& w : o.warnings) s += "<p class=\"caution\">Warning: " + escape(w) + "</p>";
+
+  s += "<h2 id=\"suspects\">Top suspects</h2>";
+  if (o.top.empty()) s += "<p>No record was flagged.</p>";
+  else {
+    s += "<table><tr><th>rank</th><th>record</th><th>taxon</th><th>score</th><th>flags</th><th>reasons</th></tr>";
+    for (const auto& r : o.top) {
+      const std::string taxon = r.taxon_index == static_cast<std::size_t>(-1)
+                                    ? escape(r.taxon)
+                                    : "<a href=\"#" + taxon_anchor(r.taxon_index) + "\"><i>" + escape(r.taxon) + "</i></a>";
+      s += "<tr>" + cell(std::to_string(r.rank), true) + cell(r.record) + "<td>" + taxon + "</td>" +
+           cell(r.score, true) + cell(spaced(r.flags)) + cell(r.reasons) + "</tr>";
+    }
+    s += "</table>";
+  }
+  s += "<h2 id=\"index\">Taxa</h2><table><tr><th>taxon</th><th>records</th><th>judged</th><th>suspects</th></tr>";
+  for (const auto& [index, e] : taxa_)
+    s += "<tr><td><a href=\"#" + taxon_anchor(index) + "\"><i>" + escape(e.name) + "</i></a></td>" +
+         cell(std::to_string(e.records), true) + cell(std::to_string(e.judged), true) +
+         cell(std::to_string(e.suspects), true) + "</tr>";
+  s += "</table>";
+  out.write_text(s);
+  std::vector<std::string> section;
+  for (const auto& [index, e] : taxa_) {
+    sections_.read(e.section, section);
+    out.write_text(section.at(0));
+  }
+  s = "<h2 id=\"manifest\">Run manifest</h2>";
+  s += o.manifest_json.empty() ? "<p>Not recorded.</p>" : "<pre>" + escape(o.manifest_json) + "</pre>";
+  s += "</body></html>\n";
+  out.write_text(s);
+  out.commit();
+}
+
+}  // namespace envsift

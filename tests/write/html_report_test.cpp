@@ -1,0 +1,159 @@
+// The HTML report of the demo run, checked with outside tools: every embedded picture is
+// base64 that coreutils' `base64 -d` decodes (RFC 4648) into SVG that libxml2's `xmllint`
+// parses as well-formed XML (XML 1.0); every suspect of a taxon (a record with flags in the screen
+// output) appears in each of its taxon's pictures; the maps carry a PNG (relief from the DEM); the
+// embedded manifest's checksum equals `sha256sum`. Also envsift's own contract: nothing outside
+// the manifest changes with the thread count, the caution comes before any result, and the file
+// holds no script and no reference to anything outside it.
+#include <map>
+#include <unistd.h>
+#include <set>
+
+#include <gtest/gtest.h>
+
+#include "envsift/write/report/svg_canvas.hpp"
+#include "../support.hpp"
+
+namespace envsift {
+namespace {
+
+using namespace envsift::testing;
+
+struct Section {
+  std::string taxon;
+  std::vector<std::string> pictures;  // decoded SVG documents
+};
+
+class HtmlReportTest : public ::testing::Test {
+ protected:
+  static void SetUpTestSuite() {
+    dir_ = temp_dir("report-" + std::to_string(::getpid()));  // ctest runs tests in parallel processes
+    const auto r = run(envsift_binary() + " screen --quiet --threads 2 --points " +
+                       source_path("demo-points/occurrences.csv") + demo_layers() + " --dem dem --out " + dir_ +
+                       "/out.csv --report " + dir_ + "/report.html");
+    ASSERT_EQ(r.exit_code, 0) << r.output;
+    html_ = read_file(dir_ + "/report.html");
+  }
+  static std::string dir_, html_;
+
+  // Each taxon section with its pictures decoded by coreutils. (Plain searches: std::regex
+  // recurses per character and overflows the stack on pictures of 100 kB.)
+  std::vector<Section> sections() const {
+    std::vector<Section> out;
+    const std::string start = "<section class=\"taxon\" id=\"taxon-", picture = "src=\"data:image/svg+xml;base64,";
+    for (std::size_t at = html_.find(start); at != std::string::npos; at = html_.find(start, at + 1)) {
+      const std::size_t name = html_.find("<h2><i>", at) + 7;
+      Section section{html_.substr(name, html_.find("</i>", name) - name), {}};
+      const std::size_t end = html_.find("</section>", at);
+      for (std::size_t p = html_.find(picture, at); p < end; p = html_.find(picture, p + 1)) {
+        const std::size_t from = p + picture.size();
+        const std::string stem = dir_ + "/picture" + std::to_string(count_++);
+        write_file(stem + ".b64", html_.substr(from, html_.find('"', from) - from));
+        EXPECT_EQ(run("base64 -d " + stem + ".b64 > " + stem + ".svg").exit_code, 0);
+        section.pictures.push_back(read_file(stem + ".svg"));
+      }
+      out.push_back(std::move(section));
+    }
+    return out;
+  }
+
+ private:
+  static inline int count_ = 0;
+};
+std::string HtmlReportTest::dir_, HtmlReportTest::html_;
+
+TEST_F(HtmlReportTest, EveryPictureIsWellFormedSvg) {
+  const auto all = sections();
+  ASSERT_EQ(all.size(), 4u);  // the demo's four taxa
+  std::string files;
+  int pictures = 0;
+  for (const auto& s : all)
+    for (const auto& svg : s.pictures) {
+      const std::string path = dir_ + "/check" + std::to_string(pictures++) + ".svg";
+      write_file(path, svg);
+      files += " " + path;
+      EXPECT_EQ(svg.rfind("<svg xmlns=\"http://www.w3.org/2000/svg\"", 0), 0u);
+    }
+  EXPECT_GE(pictures, 4);
+  const auto r = run("xmllint --noout" + files);
+  EXPECT_EQ(r.exit_code, 0) << r.output;
+  // the control: xmllint does reject a broken picture
+  write_file(dir_ + "/broken.svg", "<svg><g></svg>");
+  EXPECT_NE(run("xmllint --noout " + dir_ + "/broken.svg").exit_code, 0);
+}
+
+TEST_F(HtmlReportTest, EverySuspectAppearsInEachPictureOfItsTaxon) {
+  const Table out = read_csv(dir_ + "/out.csv");
+  std::map<std::string, std::set<std::string>> suspects;  // taxon → record IDs
+  for (const auto& row : out.rows)
+    if (!row[out.column("flags")].empty())
+      suspects[row[out.column("scientificName")]].insert(row[out.column("occurrenceID")]);
+  ASSERT_FALSE(suspects.empty());
+  std::size_t checked = 0;
+  for (const auto& s : sections()) {
+    ASSERT_FALSE(s.pictures.empty()) << s.taxon;
+    for (const auto& id : suspects[s.taxon])
+      for (const auto& svg : s.pictures) {
+        EXPECT_NE(svg.find("data-record=\"" + id + "\""), std::string::npos) << s.taxon << " " << id;
+        ++checked;
+      }
+    // and the section's table lists them
+    EXPECT_GE(s.pictures.size(), suspects[s.taxon].empty() ? 1u : 2u + 4u) << s.taxon;  // map, pair, 4 layers
+  }
+  EXPECT_GT(checked, 100u);
+  // the worst demo record is in the top-suspects table, linked to its taxon
+  EXPECT_NE(html_.find("<td>QM-0332</td><td><a href=\"#taxon-"), std::string::npos);
+}
+
+TEST_F(HtmlReportTest, MapsHaveShadedReliefFromTheDem) {
+  for (const auto& s : sections()) {
+    const std::string& map = s.pictures.at(0);
+    EXPECT_NE(map.find("longitude (°)"), std::string::npos);
+    EXPECT_NE(map.find("href=\"data:image/png;base64,iVBORw0KGgo"), std::string::npos) << s.taxon;  // PNG signature
+  }
+}
+
+TEST_F(HtmlReportTest, SelfContainedWithTheCautionFirst) {
+  EXPECT_EQ(html_.find("<script"), std::string::npos);
+  EXPECT_EQ(html_.find("src=\"http"), std::string::npos);
+  EXPECT_EQ(html_.find("href=\"http"), std::string::npos);
+  EXPECT_NE(html_.find("default-src 'none'; img-src data:"), std::string::npos);
+  const auto caution = html_.find("Flags are reasons to look, not proof of error");
+  ASSERT_NE(caution, std::string::npos);
+  EXPECT_LT(caution, html_.find("id=\"overview\""));
+}
+
+TEST_F(HtmlReportTest, ManifestIsEmbeddedWithTheInputsChecksum) {
+  const auto r = run("sha256sum " + source_path("demo-points/occurrences.csv"));
+  ASSERT_EQ(r.exit_code, 0);
+  const std::string manifest = html_.substr(html_.find("id=\"manifest\""));
+  EXPECT_NE(manifest.find("&quot;sha256&quot;: &quot;" + r.output.substr(0, 64) + "&quot;"), std::string::npos);
+}
+
+TEST_F(HtmlReportTest, SameReportWithOneThreadApartFromTheManifest) {
+  const auto r = run(envsift_binary() + " screen --quiet --threads 1 --points " + source_path("demo-points/occurrences.csv") +
+                     demo_layers() + " --dem dem --out " + dir_ + "/out1.csv --report " + dir_ + "/report1.html");
+  ASSERT_EQ(r.exit_code, 0) << r.output;
+  const std::string one = read_file(dir_ + "/report1.html");
+  auto before_manifest = [](const std::string& html, const std::string& out_name) {
+    std::string s = html.substr(0, html.find("<h2 id=\"manifest\">"));
+    for (std::size_t at; (at = s.find(out_name)) != std::string::npos;) s.erase(at, out_name.size());
+    return s;
+  };
+  EXPECT_EQ(before_manifest(one, "out1.csv"), before_manifest(html_, "out.csv"));
+}
+
+TEST(DataUri, Base64EqualsCoreutils) {
+  const auto dir = temp_dir("base64");
+  // lengths 0..5 cover every padding case; bytes above 0x7f check sign handling
+  for (const std::string& bytes : {std::string(""), std::string("f"), std::string("fo"), std::string("foo"),
+                                  std::string("\xff\xfe\x80\x00\x7f", 5), std::string("envsift report")}) {
+    write_file(dir + "/in", bytes);
+    const auto r = run("base64 -w0 " + dir + "/in");
+    ASSERT_EQ(r.exit_code, 0);
+    EXPECT_EQ(svg::data_uri("x", bytes), "data:x;base64," + r.output);
+  }
+}
+
+}  // namespace
+}  // namespace envsift
