@@ -1,6 +1,7 @@
 #include "envsift/pipeline.hpp"
 
 #include <algorithm>
+#include <cstdio>
 #include <cmath>
 #include <memory>
 #include <chrono>
@@ -268,6 +269,7 @@ RunSummary run_screen(const ScreenOptions& o) {
   std::unique_ptr<detail::ReportBuilder> report;
   if (!o.report.empty()) report = std::make_unique<detail::ReportBuilder>(o, g, detectors);
   std::vector<double> test_seconds;
+  std::vector<std::pair<std::size_t, std::string>> population_warnings;  // (taxon index, words)
   std::size_t eligible_taxa = 0;
   {
     std::vector<bool> seen(taxon_names.size());
@@ -279,6 +281,17 @@ RunSummary run_screen(const ScreenOptions& o) {
       {g.values, g.cells, taxon_of, taxon_names, eligible, g.layer_names, g.has_discs ? &g.discs.min : nullptr,
        g.has_discs ? &g.discs.max : nullptr},
       detectors, o.distinct_cells, o.seed, [&](const ScreenedTaxon& taxon, std::vector<std::vector<Finding>>& findings) {
+        for (std::size_t t = 0; t < detectors.size(); ++t) {
+          const double share = withhold_population_flags(findings[t], names[t], o.population);
+          if (share < 0) continue;
+          char words[320];
+          std::snprintf(words, sizeof words,
+                        "taxon '%s': %s flagged %.0f%% of its records, so it may have several populations; "
+                        "those flags are withheld (looks_multimodal:%s) - review the taxon as a whole",
+                        taxon.taxon.c_str(), names[t].c_str(), 100 * share, names[t].c_str());
+          std::lock_guard<std::mutex> lock(results_lock);
+          population_warnings.emplace_back(taxon.index, words);
+        }
         std::vector<Verdict> verdicts;
         std::vector<std::string> columns;
         for (std::size_t r = 0; r < taxon.records.size(); ++r) {
@@ -323,6 +336,8 @@ RunSummary run_screen(const ScreenOptions& o) {
     });
 
   summary.warnings = g.warnings;
+  std::sort(population_warnings.begin(), population_warnings.end());  // by taxon, whatever the threads
+  for (auto& w : population_warnings) summary.warnings.push_back(std::move(w.second));
   CsvWriter out(o.out);
   const auto header = output_header(g, added);
   out.row(header);

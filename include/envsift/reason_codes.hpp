@@ -36,6 +36,8 @@ inline const std::string value_not_numeric = "value_not_numeric";  // the value 
 inline const std::string no_values = "no_values";          // no layer value at all to test
 inline const std::string too_few_records = "too_few_records";  // taxon too small for every test
 inline const std::string other_shard = "other_shard";  // --shard: another shard screens this record
+// suffix ":<test>": the test flagged so much of the taxon that its flags were withheld
+inline const std::string looks_multimodal = "looks_multimodal";
 
 inline std::string on_layer(const std::string& code, const std::string& layer) { return code + ":" + layer; }
 

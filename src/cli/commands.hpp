@@ -5,4 +5,5 @@ namespace envsift::cli {
 int sample_command(int argc, char** argv);
 int screen_command(int argc, char** argv);
 int merge_command(int argc, char** argv);
+int evaluate_command(int argc, char** argv);
 }  // namespace envsift::cli

@@ -20,6 +20,7 @@ const char* kUsage =
     "  sample   sample raster layers at every record\n"
     "  screen   sample, test each record against its taxon, and rank suspects for review\n"
     "  merge    combine the outputs of screen --shard I/N into one ranked file\n"
+    "  evaluate measure what the tests find: virtual taxa with known errors on your rasters\n"
     "\n"
     "Flags are reasons to look, not proof of error: review flagged records before removing any.\n"
     "exit codes: 0 ok, 2 bad command line, 3 bad input, 4 output not written, 5 internal error,\n"
@@ -48,7 +49,8 @@ int main(int argc, char** argv) {
     if (command == "sample") return envsift::cli::sample_command(argc - 1, argv + 1);
     if (command == "screen") return envsift::cli::screen_command(argc - 1, argv + 1);
     if (command == "merge") return envsift::cli::merge_command(argc - 1, argv + 1);
-    std::cerr << "envsift: error: unknown command '" << command << "'; use sample, screen or merge (envsift --help)\n";
+    if (command == "evaluate") return envsift::cli::evaluate_command(argc - 1, argv + 1);
+    std::cerr << "envsift: error: unknown command '" << command << "'; use sample, screen, merge or evaluate (envsift --help)\n";
     return static_cast<int>(ExitCode::usage);
   } catch (const envsift::Error& e) {
     std::cerr << "envsift: error: " << e.what() << "\n";

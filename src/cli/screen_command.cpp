@@ -4,26 +4,15 @@
 #include "commands.hpp"
 #include "envsift/errors.hpp"
 #include "options.hpp"
+#include "test_options.hpp"
 #include "progress_display.hpp"
 
 namespace envsift::cli {
-namespace {
-
-std::vector<std::string> split_list(const std::string& text) {
-  std::vector<std::string> items;
-  std::stringstream in(text);
-  std::string item;
-  while (std::getline(in, item, ','))
-    if (!item.empty()) items.push_back(item);
-  return items;
-}
-
-}  // namespace
 
 int screen_command(int argc, char** argv) {
   ScreenOptions o;
-  std::string tests = "robust_z,reverse_jackknife,mahalanobis,mahalanobis_robust", value_columns;
-  std::size_t min_records = 10;
+  TestChoices choices;
+  std::string value_columns;
   po::options_description d(
       "Sample the layers, then judge each record against the other records of its taxon and rank all\n"
       "records, most suspicious first. Output: the `sample` columns plus `rank` (1 = look at this first),\n"
@@ -32,26 +21,8 @@ int screen_command(int argc, char** argv) {
       "before removing any.\n\nOptions",
       100, 50);
   add_sampling_options(d, o, false);
+  add_test_options(d, o, choices);
   d.add_options()
-    ("tests", po::value(&tests)->default_value(tests)->value_name("LIST"),
-     "tests to run, comma-separated. robust_z: one layer at a time, distance from the taxon's median; "
-     "reverse_jackknife: one layer at a time, a gap cutting off a tail; mahalanobis: all layers together, "
-     "classical mean/covariance; mahalanobis_robust: all layers together, FAST-MCD estimates that outliers "
-     "cannot distort. All four by default: each catches errors the others miss.")
-    ("z-cutoff", po::value(&o.robust_z.cutoff)->default_value(o.robust_z.cutoff)->value_name("Z"),
-     "robust_z flags |z| > Z. 3 is 'very conservative' in Leys et al. (2013); lower values flag more good "
-     "records, and a record is judged on every layer")
-    ("chi2-quantile", po::value(&o.mahalanobis.quantile)->default_value(o.mahalanobis.quantile)->value_name("Q"),
-     "the Mahalanobis tests flag D² above the Q quantile of chi-square (Rousseeuw & van Zomeren 1990 use 0.975)")
-    ("min-records", po::value(&min_records)->default_value(min_records)->value_name("N"),
-     "a taxon needs N values (distinct cells) on a layer for the one-layer tests, and N complete rows for "
-     "the Mahalanobis tests, which also use at most one dimension per 3 rows; smaller taxa get "
-     "too_few_records:TEST")
-    ("all-records", po::bool_switch(),
-     "estimate each taxon's statistics from every record, not from one record per distinct cell (the "
-     "default, so that fifty records in one cell neither zero the spread nor hide an outlier)")
-    ("seed", po::value(&o.seed)->default_value(o.seed)->value_name("N"),
-     "seed of the random subsets of mahalanobis_robust; the same seed gives the same output")
     ("value-columns", po::value(&value_columns)->value_name("A,B,..."),
      "screen values already in the points file (these columns) instead of sampling --layers")
     ("single-taxon", po::bool_switch(&o.single_taxon), "treat the whole file as one taxon (no taxon column needed)")
@@ -88,19 +59,14 @@ int screen_command(int argc, char** argv) {
   finish_sampling_options(vm, o);
   ProgressDisplay progress;
   if (!vm["quiet"].as<bool>()) o.progress = &progress;
-  o.tests = split_list(tests);
   o.value_columns = split_list(value_columns);
   if (o.value_columns.empty() && o.layers.empty()) throw UsageError("give --layers (rasters to sample) or --value-columns");
   if (!o.value_columns.empty() && !o.layers.empty()) throw UsageError("give either --layers or --value-columns, not both");
-  o.distinct_cells = !vm["all-records"].as<bool>();
   o.reader.require_taxon = !o.single_taxon;
-  o.robust_z.min_records = o.jackknife.min_records = o.mahalanobis.min_records = min_records;
+  finish_test_options(vm, o, choices);
   const std::string order = vm["order"].as<std::string>();
   if (order == "rank") o.order = RowOrder::rank;
   else if (order != "input") throw UsageError("--order must be input or rank, not '" + order + "'");
-  if (!(o.robust_z.cutoff > 0)) throw UsageError("--z-cutoff must be a positive number");
-  if (!(o.mahalanobis.quantile > 0 && o.mahalanobis.quantile < 1)) throw UsageError("--chi2-quantile must be between 0 and 1");
-  if (min_records < 3) throw UsageError("--min-records must be at least 3");
   if (vm.count("shard")) {
     const std::string text = vm["shard"].as<std::string>();
     const auto slash = text.find('/');

@@ -39,6 +39,8 @@
 #include <Eigen/Eigenvalues>
 
 #include "envsift/detect/chi_square.hpp"
+#include "envsift/detect/robust_z.hpp"
+#include "envsift/detect/skew_scale.hpp"
 
 namespace envsift {
 
@@ -152,7 +154,31 @@ std::string describe(const std::string& test, double d2, double cutoff, std::siz
 
 }  // namespace
 
+// The skew-adjusted scale (see MahalanobisOptions): every value v of layer l becomes
+// (v − median_l) / scale_l(side of v), from the layer's reference values. Monotone per layer, so
+// a disc's [min, max] maps onto the transformed disc.
 std::vector<Finding> Mahalanobis::judge(const TaxonValues& taxon) const {
+  if (!options_.skew_adjusted) return judge_values(taxon);
+  Eigen::MatrixXd reference = taxon.reference, records = taxon.records, lower, upper;
+  if (taxon.lower) lower = *taxon.lower, upper = *taxon.upper;
+  for (Eigen::Index l = 0; l < reference.cols(); ++l) {
+    std::vector<double> column(reference.col(l).data(), reference.col(l).data() + reference.rows());
+    const RobustSpread spread = robust_spread(column);
+    if (!(spread.spread > 0)) continue;  // no spread: reduce() leaves the layer out anyway
+    const SideScales scale = side_scales(std::move(column), spread.spread);
+    auto transform = [&](Eigen::MatrixXd& m) {
+      for (Eigen::Index r = 0; r < m.rows(); ++r) m(r, l) = scale.z(m(r, l));
+    };
+    transform(reference);
+    transform(records);
+    if (taxon.lower) transform(lower), transform(upper);
+  }
+  const TaxonValues adjusted{reference, records, taxon.layer_names, taxon.seed, taxon.lower ? &lower : nullptr,
+                             taxon.upper ? &upper : nullptr};
+  return judge_values(adjusted);
+}
+
+std::vector<Finding> Mahalanobis::judge_values(const TaxonValues& taxon) const {
   const auto rows = static_cast<std::size_t>(taxon.records.rows());
   const Eigen::Index p = taxon.records.cols();
   // Layers with enough reference values, then the reference rows complete on those layers.

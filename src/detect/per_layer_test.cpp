@@ -30,6 +30,9 @@ std::vector<Finding> PerLayerTest::judge(const TaxonValues& taxon) const {
       untested = "too_few_records:" + this->name();
       continue;
     }
+    std::sort(reference.begin(), reference.end());
+    const std::vector<double> sorted = reference;
+    const double common = std::max(2.0, common_share_ * static_cast<double>(sorted.size()));
     const auto layer = prepare(std::move(reference), name);
     if (!layer) {
       untested = "no_spread:" + name;
@@ -40,6 +43,10 @@ std::vector<Finding> PerLayerTest::judge(const TaxonValues& taxon) const {
       if (!std::isfinite(lo)) continue;
       const double x = std::clamp(layer->centre(), lo, hi);  // the best-fitting value in the disc
       LayerVerdict v = layer->judge(x);
+      if (v.statistic > v.threshold) {
+        const auto [first, last] = std::equal_range(sorted.begin(), sorted.end(), x);
+        if (static_cast<double>(last - first) >= common) v.statistic = v.threshold, v.reason.clear();
+      }
       if (lo < hi && v.statistic > v.threshold) {
         char buf[160];
         std::snprintf(buf, sizeof buf, ", the closest value within its uncertainty disc (%.6g to %.6g)", lo, hi);

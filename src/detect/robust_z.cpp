@@ -16,7 +16,13 @@
 // one IBM documents for its modified z-score — from memory). Only when every value is equal is
 // the layer not judged (`no_spread:LAYER`). A layer with fewer than `min_records` reference values
 // is not judged either (`too_few_records:robust_z`).
+//
+// Skewed layers (rainfall, slope, distances): with `skew_adjusted` (the default) each side of
+// the median has its own spread, the distance to that side's adjusted-boxplot fence over 2.698
+// (Hubert & Vandervieren 2008; skew_scale.cpp), which equals the SD on both sides for normal
+// data, so z keeps its meaning there while a long tail stops producing flags.
 #include "envsift/detect/robust_z.hpp"
+#include "envsift/detect/skew_scale.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -64,23 +70,25 @@ RobustSpread robust_spread(std::vector<double> values) {
 
 namespace {
 
+// `scale` holds one spread per side of the median: both the MAD-based spread, or with
+// skew adjustment each side's own (skew_scale.hpp, the MAD-based spread where a side collapses).
 class RobustZLayer : public PerLayerTest::Layer {
  public:
-  RobustZLayer(RobustSpread spread, double cutoff, std::string name)
-      : spread_(spread), cutoff_(cutoff), name_(std::move(name)) {}
+  RobustZLayer(SideScales scale, double cutoff, std::string name)
+      : scale_(scale), cutoff_(cutoff), name_(std::move(name)) {}
   LayerVerdict judge(double x) const override {
-    const double z = (x - spread_.median) / spread_.spread;
+    const double z = scale_.z(x);
     LayerVerdict v{std::fabs(z), cutoff_, ""};
-    if (v.statistic > cutoff_) v.reason = describe(name_, x, z, spread_.median);
+    if (v.statistic > cutoff_) v.reason = describe(name_, x, z, scale_.median);
     return v;
   }
-  double centre() const override { return spread_.median; }
+  double centre() const override { return scale_.median; }
   std::pair<double, double> accepted() const override {
-    return {spread_.median - cutoff_ * spread_.spread, spread_.median + cutoff_ * spread_.spread};
+    return {scale_.median - cutoff_ * scale_.below, scale_.median + cutoff_ * scale_.above};
   }
 
  private:
-  RobustSpread spread_;
+  SideScales scale_;
   double cutoff_;
   std::string name_;
 };
@@ -88,9 +96,11 @@ class RobustZLayer : public PerLayerTest::Layer {
 }  // namespace
 
 std::unique_ptr<PerLayerTest::Layer> RobustZ::prepare(std::vector<double> reference, const std::string& layer) const {
-  const RobustSpread s = robust_spread(std::move(reference));
+  const RobustSpread s = robust_spread(reference);
   if (!(s.spread > 0)) return nullptr;
-  return std::make_unique<RobustZLayer>(s, options_.cutoff, layer);
+  const SideScales scale = options_.skew_adjusted ? side_scales(std::move(reference), s.spread)
+                                                  : SideScales{s.median, s.spread, s.spread};
+  return std::make_unique<RobustZLayer>(scale, options_.cutoff, layer);
 }
 
 }  // namespace envsift

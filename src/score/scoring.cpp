@@ -14,6 +14,7 @@ Verdict combine(const std::vector<const Finding*>& findings, const std::vector<s
       v.untested.push_back(f.untested_reason);
       continue;
     }
+    v.untested.insert(v.untested.end(), f.codes.begin(), f.codes.end());
     v.score = std::max(v.score.value_or(0.0), f.severity);
     if (f.flagged) {
       v.flags.push_back(names[t]);

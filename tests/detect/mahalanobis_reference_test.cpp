@@ -73,6 +73,7 @@ MahalanobisOptions keep_all_dimensions() {
   MahalanobisOptions o;
   o.min_records = 3;
   o.rows_per_dimension = 1;
+  o.skew_adjusted = false;  // the classical statistic, as R computes it
   return o;
 }
 

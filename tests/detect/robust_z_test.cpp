@@ -21,7 +21,7 @@ TEST(RobustZ, LeysWorkedExample) {
   EXPECT_DOUBLE_EQ(s.median, 7);
   EXPECT_NEAR(s.spread, 5.189, 5e-4);
   EXPECT_FALSE(s.from_mean_deviation);
-  const auto f = RobustZ({2.5, 8}).judge({x, x, kLayer});
+  const auto f = RobustZ({2.5, 8, false, 0}).judge({x, x, kLayer});
   for (std::size_t i = 0; i < 7; ++i) EXPECT_FALSE(f[i].flagged) << i;
   EXPECT_TRUE(f[7].flagged);
   EXPECT_NEAR(f[7].statistic, (1000 - 7) / 5.1891, 1e-2);
@@ -38,7 +38,7 @@ TEST(RobustZ, MadZeroFallsBackToMeanAbsoluteDeviation) {
   const RobustSpread s = robust_spread({5, 5, 5, 5, 5, 5, 6, 8, 9, 11});
   EXPECT_TRUE(s.from_mean_deviation);
   EXPECT_NEAR(s.spread, 1.75464, 1e-5);
-  const auto f = RobustZ({3.0, 10}).judge({x, x, kLayer});
+  const auto f = RobustZ({3.0, 10, false, 0}).judge({x, x, kLayer});
   EXPECT_NEAR(f[9].statistic, 3.4195, 1e-4);
   EXPECT_TRUE(f[9].flagged);
   EXPECT_FALSE(f[8].flagged);  // 4 / 1.75464 = 2.28

@@ -45,6 +45,7 @@ struct Finding {
   std::vector<double> extras;        // values of the test's extra_columns(), NaN when unknown
   std::vector<std::string> reasons;  // plain words for a flagged record: which layer, how far
   std::string untested_reason;       // a reason code when not tested, e.g. too_few_records:robust_z
+  std::vector<std::string> codes;    // reason codes for a tested record (e.g. looks_multimodal:TEST)
 };
 
 class Detector {

@@ -16,6 +16,9 @@ struct MahalanobisOptions {
   std::size_t min_records = 10;        // fewer complete reference rows: not judged
   std::size_t rows_per_dimension = 3;  // at most ⌊rows / 3⌋ dimensions are used
   double eigen_floor = 1e-6;           // components with eigenvalue < floor · largest are dropped
+  // Measure each layer on the taxon's skew-adjusted scale first (skew_scale.hpp): distance from
+  // the median in units of the side's adjusted-boxplot scale, so a long tail is not an outlier.
+  bool skew_adjusted = true;
 };
 
 struct Estimate {
@@ -36,6 +39,7 @@ class Mahalanobis : public Detector {
   const MahalanobisOptions& options() const { return options_; }
 
  private:
+  std::vector<Finding> judge_values(const TaxonValues& taxon) const;
   MahalanobisOptions options_;
 };
 

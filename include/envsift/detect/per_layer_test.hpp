@@ -41,7 +41,10 @@ class PerLayerTest : public Detector {
   std::optional<std::pair<double, double>> accepted_range(std::vector<double> reference, const std::string& layer) const;
 
  protected:
-  explicit PerLayerTest(std::size_t min_records) : min_records_(min_records) {}
+  // common_share: a value that at least this share of the reference values (and two of them)
+  // hold exactly is not an outlier on that layer — a layer of few classes (months, soil types)
+  // has a second-commonest class, not outliers; its statistic is capped at the cutoff.
+  PerLayerTest(std::size_t min_records, double common_share) : min_records_(min_records), common_share_(common_share) {}
 
   // From the layer's finite reference values (at least min_records of them); nullptr when the
   // values have no spread to judge by.
@@ -49,6 +52,7 @@ class PerLayerTest : public Detector {
 
  private:
   std::size_t min_records_;
+  double common_share_;
 };
 
 }  // namespace envsift

@@ -8,11 +8,13 @@ namespace envsift {
 
 struct ReverseJackknifeOptions {
   std::size_t min_records = 10;  // fewer reference values on a layer: that layer is not judged
+  double common_share = 0.05;    // a value held by this share of the reference is not flagged
 };
 
 class ReverseJackknife : public PerLayerTest {
  public:
-  explicit ReverseJackknife(ReverseJackknifeOptions options = {}) : PerLayerTest(options.min_records) {}
+  explicit ReverseJackknife(ReverseJackknifeOptions options = {})
+      : PerLayerTest(options.min_records, options.common_share) {}
   std::string name() const override { return "reverse_jackknife"; }
 
  protected:

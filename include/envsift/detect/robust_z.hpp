@@ -10,11 +10,16 @@ namespace envsift {
 struct RobustZOptions {
   double cutoff = 3.0;          // |z| beyond this flags (Leys et al. 2013: 3 = very conservative)
   std::size_t min_records = 10;  // fewer reference values on a layer: that layer is not judged
+  // Scale each side of the median by its adjusted-boxplot fence (skew_scale.hpp) instead of one
+  // MAD for both: a long tail on one side is then not flagged, a short one is judged tightly.
+  bool skew_adjusted = true;
+  double common_share = 0.05;    // a value held by this share of the reference is not flagged
 };
 
 class RobustZ : public PerLayerTest {
  public:
-  explicit RobustZ(RobustZOptions options = {}) : PerLayerTest(options.min_records), options_(options) {}
+  explicit RobustZ(RobustZOptions options = {})
+      : PerLayerTest(options.min_records, options.common_share), options_(options) {}
   std::string name() const override { return "robust_z"; }
 
  protected:

@@ -19,7 +19,7 @@ struct Verdict {
   std::optional<double> score;      // empty: no test could judge the record
   std::vector<std::string> flags;   // names of the tests that flagged it
   std::vector<std::string> reasons; // plain words, most severe test first
-  std::vector<std::string> untested;  // reason codes of tests that could not judge it
+  std::vector<std::string> untested;  // reason codes of tests that could not judge it, or withheld their flags
 };
 
 // `findings[t]` is test t's finding for this record; `names[t]` its name.

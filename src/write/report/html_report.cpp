@@ -13,6 +13,8 @@ namespace {
 
 using svg::escape;
 
+constexpr std::size_t kTableRows = 200;  // suspects listed per taxon; the pictures show them all
+
 // No request may leave the file: only inline styles and data: images are allowed.
 const char* kHead =
     "<!DOCTYPE html>\n<html lang=\"en\"><head><meta charset=\"utf-8\">"
@@ -101,13 +103,17 @@ void HtmlReport::add_taxon(std::size_t index, const TaxonPicture& t, std::size_t
     s += "<table><tr><th>record</th><th>score</th><th>reasons</th>";
     for (const auto& l : t.layers) s += "<th>" + escape(l.name) + "</th>";
     s += "</tr>";
+    std::size_t listed = 0;
     for (const auto& r : t.records) {
-      if (!r.suspect) continue;
+      if (!r.suspect || listed++ == kTableRows) continue;
       s += "<tr>" + cell(r.label) + cell(format_score(r.score), true) + cell(r.reasons);
       for (std::size_t l = 0; l < t.layers.size(); ++l) s += cell(value_text(r.value[l]), true);
       s += "</tr>";
     }
     s += "</table>";
+    if (suspects > kTableRows)
+      s += "<p class=\"note\">The " + std::to_string(kTableRows) + " worst of " + std::to_string(suspects) +
+           " suspects are listed; the output CSV has them all (--order rank lists them worst first).</p>";
   }
   s += "</section>\n";
   std::lock_guard<std::mutex> guard(lock_);

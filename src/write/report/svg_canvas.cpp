@@ -126,16 +126,14 @@ void Plot::vertical(double v, const char* colour, const std::string& dash, const
 }
 
 void Plot::suspect(double px, double py, const std::string& record, bool label) {
-  body_ += "<g class=\"suspect\" data-record=\"" + escape(record) + "\"><title>" + escape(record) + "</title>";
-  body_ += "<path d=\"M" + number(px) + " " + number(py - 6) + " l5.5 9.5 h-11 z\" fill=\"" + colour::suspect +
-           "\" stroke=\"#000\" stroke-width=\"1\"/>";
+  // one shared symbol per picture (defined in finish()): a report of thousands of suspects stays small
+  body_ += "<use href=\"#suspect\" x=\"" + number(px) + "\" y=\"" + number(py) + "\" data-record=\"" + escape(record) + "\"/>";
   if (label) {
     const bool left_of = px > right() - 70;  // keep the label inside the picture
     body_ += "<text x=\"" + number(left_of ? px - 7 : px + 7) + "\" y=\"" + number(py - 5) + "\"" +
              (left_of ? " text-anchor=\"end\"" : "") + " font-size=\"10\" paint-order=\"stroke\" "
              "stroke=\"#fff\" stroke-width=\"3\">" + escape(record) + "</text>";
   }
-  body_ += "</g>";
 }
 
 void Plot::legend(const std::vector<std::pair<std::string, std::string>>& entries) {
@@ -151,6 +149,8 @@ std::string Plot::finish() const {
   return "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"" + number(width_) + "\" height=\"" + number(height_) +
          "\" viewBox=\"0 0 " + number(width_) + " " + number(height_) +
          "\" font-family=\"DejaVu Sans, Arial, sans-serif\" font-size=\"11\">"
+         "<defs><path id=\"suspect\" d=\"M0 -6 l5.5 9.5 h-11 z\" fill=\"" + std::string(colour::suspect) +
+         "\" stroke=\"#000\" stroke-width=\"1\"/></defs>"
          "<rect width=\"100%\" height=\"100%\" fill=\"#fff\"/>"
          "<text x=\"" + number(left()) + "\" y=\"15\" font-size=\"12\" font-weight=\"bold\">" + escape(title_) +
          "</text>" + legend_ + body_ + "</svg>";

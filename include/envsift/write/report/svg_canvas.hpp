@@ -50,7 +50,7 @@ class Plot {
   void vertical(double v, const char* colour, const std::string& dash, const std::string& label);
   void raw(const std::string& element) { body_ += element; }
   // A suspect record at pixel (px, py): an orange triangle with a black outline, labelled when
-  // `label` is true; `record` goes into data-record and the tooltip.
+  // `label` is true; `record` goes into its data-record attribute.
   void suspect(double px, double py, const std::string& record, bool label);
   void legend(const std::vector<std::pair<std::string, std::string>>& entries);  // (mark SVG, words)
   std::string finish() const;  // the standalone SVG document

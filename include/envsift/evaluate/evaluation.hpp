@@ -1,0 +1,40 @@
+// `envsift evaluate`: screen virtual taxa with injected errors on the user's rasters, with exactly
+// the settings `screen` would use, and measure what each test and the combined verdict find.
+//   virtual taxa (virtual_taxa.hpp) → records → errors (injected_errors.hpp) → points file →
+//   run_screen → the output read back → metrics per test and combined (detection_metrics.hpp)
+#pragma once
+#include <string>
+#include <vector>
+
+#include "envsift/evaluate/detection_metrics.hpp"
+#include "envsift/evaluate/virtual_taxa.hpp"
+#include "envsift/pipeline.hpp"
+
+namespace envsift {
+
+struct EvaluateOptions {
+  ScreenOptions screen;              // layers, tests and their settings (points/out are set here)
+  VirtualTaxaOptions taxa;
+  std::size_t study_cells = 200000;  // candidate cells sampled from the first layer
+  double error_share = 0.05;         // of each taxon's records
+  double unsuitable_below = 0.05;    // an error is "into unsuitable environment" below this suitability
+  std::string keep_screened;         // also keep the screen output (with the truth columns); "" = no
+};
+
+struct EvaluationRow {
+  std::string test;  // a test's name, or "combined"
+  DetectionMetrics metrics;
+};
+
+struct Evaluation {
+  std::size_t taxa = 0, records = 0, errors = 0, errors_off_layers = 0;
+  std::vector<EvaluationRow> rows;
+  RunSummary screen;  // what the screen said (warnings, counts)
+};
+
+Evaluation run_evaluation(const EvaluateOptions& options);
+
+// The table as CSV (atomically): one row per test and one for the combined verdict.
+void write_evaluation(const std::string& path, const Evaluation& evaluation);
+
+}  // namespace envsift

@@ -1,0 +1,35 @@
+#include "envsift/evaluate/injected_errors.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <utility>
+
+namespace envsift {
+
+void inject_errors(std::vector<VirtualRecord>& records, const StudyArea& area, double share, SeededRandom& random) {
+  const std::size_t n = records.size();
+  if (n < 2) return;
+  const auto count = std::clamp<std::size_t>(static_cast<std::size_t>(std::lround(share * static_cast<double>(n))), 1, n - 1);
+  std::vector<std::size_t> order(n);
+  for (std::size_t i = 0; i < n; ++i) order[i] = i;
+  for (std::size_t i = 0; i < count; ++i) std::swap(order[i], order[i + random.below(n - i)]);  // partial shuffle
+  static const char* kinds[] = {"relocated", "swapped", "longitude_sign", "latitude_sign", "decimal_shift"};
+  for (std::size_t k = 0; k < count; ++k) {
+    VirtualRecord& r = records[order[k]];
+    r.error = kinds[random.below(5)];
+    if (r.error == "relocated") {
+      const std::size_t cell = random.below(area.longitude.size());
+      r.longitude = area.longitude[cell], r.latitude = area.latitude[cell];
+    } else if (r.error == "swapped") {
+      std::swap(r.longitude, r.latitude);
+    } else if (r.error == "longitude_sign") {
+      r.longitude = -r.longitude;
+    } else if (r.error == "latitude_sign") {
+      r.latitude = -r.latitude;
+    } else {
+      (random.below(2) ? r.longitude : r.latitude) /= 10;
+    }
+  }
+}
+
+}  // namespace envsift
