@@ -31,6 +31,9 @@ int evaluate_command(int argc, char** argv) {
     ("taxa", po::value(&e.taxa.taxa)->default_value(e.taxa.taxa)->value_name("N"), "virtual taxa to build")
     ("taxon-records", po::value<std::string>()->default_value("12-3000")->value_name("MIN-MAX"),
      "records per taxon, log-uniform between MIN and MAX")
+    ("response-width", po::value<std::string>()->default_value("0.1-0.4")->value_name("LOW-HIGH"),
+     "width of each taxon's Gaussian response to a layer, in SDs of that layer over the study area, uniform "
+     "between LOW and HIGH (broad responses give taxa the skew of the landscape)")
     ("two-population-share", po::value(&e.taxa.two_population_share)->default_value(e.taxa.two_population_share)->value_name("S"),
      "share of the taxa with two populations in different environments (30-50 % of records in the second)")
     ("error-share", po::value(&e.error_share)->default_value(e.error_share)->value_name("S"),
@@ -61,6 +64,10 @@ int evaluate_command(int argc, char** argv) {
   if (std::sscanf(range.c_str(), "%lu-%lu", &low, &high) != 2 || low < 3 || high < low)
     throw UsageError("--taxon-records must be MIN-MAX with 3 <= MIN <= MAX, e.g. 12-3000, not '" + range + "'");
   e.taxa.min_records = low, e.taxa.max_records = high;
+  const std::string widths = vm["response-width"].as<std::string>();
+  if (std::sscanf(widths.c_str(), "%lf-%lf", &e.taxa.width_low, &e.taxa.width_high) != 2 || !(e.taxa.width_low > 0) ||
+      e.taxa.width_high < e.taxa.width_low)
+    throw UsageError("--response-width must be LOW-HIGH with 0 < LOW <= HIGH, e.g. 0.1-0.4, not '" + widths + "'");
   if (e.taxa.taxa < 1) throw UsageError("--taxa must be at least 1");
   if (!(e.error_share > 0 && e.error_share < 0.5)) throw UsageError("--error-share must be above 0 and below 0.5");
   if (!(e.taxa.two_population_share >= 0 && e.taxa.two_population_share <= 1))

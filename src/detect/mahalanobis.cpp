@@ -165,7 +165,9 @@ std::vector<Finding> Mahalanobis::judge(const TaxonValues& taxon) const {
     std::vector<double> column(reference.col(l).data(), reference.col(l).data() + reference.rows());
     const RobustSpread spread = robust_spread(column);
     if (!(spread.spread > 0)) continue;  // no spread: reduce() leaves the layer out anyway
-    const SideScales scale = side_scales(std::move(column), spread.spread);
+    const double floor = resolution(column);
+    SideScales scale = side_scales(std::move(column), spread.spread);
+    scale.below = std::max(scale.below, floor), scale.above = std::max(scale.above, floor);
     auto transform = [&](Eigen::MatrixXd& m) {
       for (Eigen::Index r = 0; r < m.rows(); ++r) m(r, l) = scale.z(m(r, l));
     };

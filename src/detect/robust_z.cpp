@@ -17,10 +17,12 @@
 // the layer not judged (`no_spread:LAYER`). A layer with fewer than `min_records` reference values
 // is not judged either (`too_few_records:robust_z`).
 //
-// Skewed layers (rainfall, slope, distances): with `skew_adjusted` (the default) each side of
+// Skewed layers (rainfall, slope, distances): with `skew_adjusted` (--scale skew) each side of
 // the median has its own spread, the distance to that side's adjusted-boxplot fence over 2.698
 // (Hubert & Vandervieren 2008; skew_scale.cpp), which equals the SD on both sides for normal
-// data, so z keeps its meaning there while a long tail stops producing flags.
+// data, so z keeps its meaning there while a long tail stops producing flags. Both ways, no
+// spread is taken below the values' resolution (skew_scale.hpp): on a layer of whole months, one
+// month from the median is never many robust SDs.
 #include "envsift/detect/robust_z.hpp"
 #include "envsift/detect/skew_scale.hpp"
 
@@ -98,8 +100,10 @@ class RobustZLayer : public PerLayerTest::Layer {
 std::unique_ptr<PerLayerTest::Layer> RobustZ::prepare(std::vector<double> reference, const std::string& layer) const {
   const RobustSpread s = robust_spread(reference);
   if (!(s.spread > 0)) return nullptr;
-  const SideScales scale = options_.skew_adjusted ? side_scales(std::move(reference), s.spread)
-                                                  : SideScales{s.median, s.spread, s.spread};
+  const double floor = resolution(reference);
+  SideScales scale = options_.skew_adjusted ? side_scales(std::move(reference), s.spread)
+                                            : SideScales{s.median, s.spread, s.spread};
+  scale.below = std::max(scale.below, floor), scale.above = std::max(scale.above, floor);
   return std::make_unique<RobustZLayer>(scale, options_.cutoff, layer);
 }
 

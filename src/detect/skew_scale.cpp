@@ -173,3 +173,19 @@ SideScales side_scales(std::vector<double> x, double fallback) {
 }
 
 }  // namespace envsift
+
+namespace envsift {
+
+double resolution(std::vector<double> x) {
+  x = finite(std::move(x));
+  std::sort(x.begin(), x.end());
+  // gaps of rounding noise (a scaled integer read as 15.100000000000001) are not gaps
+  double gap = 0;
+  for (std::size_t i = 1; i < x.size(); ++i) {
+    const double d = x[i] - x[i - 1];
+    if (d > 1e-9 * std::max(1.0, std::fabs(x[i])) && (gap == 0 || d < gap)) gap = d;
+  }
+  return gap;
+}
+
+}  // namespace envsift

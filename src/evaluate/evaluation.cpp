@@ -10,6 +10,7 @@
 #include "envsift/errors.hpp"
 #include "envsift/evaluate/injected_errors.hpp"
 #include "envsift/read/csv_reader.hpp"
+#include "envsift/sample/raster_stack.hpp"
 #include "envsift/write/csv_writer.hpp"
 
 namespace envsift {
@@ -60,7 +61,19 @@ Evaluation run_evaluation(const EvaluateOptions& o) {
     for (auto& r : mine) records.push_back(std::move(r)), taxon_of.push_back(&taxa[t]);
   }
 
-  // The suitability where each record now lies (the layers sampled as the screen will).
+  // The suitability where each record now lies (the layers sampled as the screen will sample them).
+  std::vector<double> suitability(records.size());
+  {
+    RasterStack stack(expand_layer_arguments(o.screen.layers), std::size_t(256) << 20, o.screen.assume_crs);
+    std::vector<double> lon, lat;
+    for (const auto& r : records) {
+      const bool valid = std::fabs(r.latitude) <= 90 && std::fabs(r.longitude) <= 180;
+      lon.push_back(valid ? r.longitude : std::nan("")), lat.push_back(valid ? r.latitude : std::nan(""));
+    }
+    const Samples s = stack.sample(lon, lat, o.screen.method);
+    for (std::size_t i = 0; i < records.size(); ++i)
+      suitability[i] = taxon_of[i]->suitability(s.values.row(static_cast<Eigen::Index>(i)).transpose());
+  }
   ScratchDirectory scratch;
   ScreenOptions screen = o.screen;
   screen.points = scratch.path + "/virtual.csv";
@@ -68,9 +81,12 @@ Evaluation run_evaluation(const EvaluateOptions& o) {
   screen.order = RowOrder::input;
   {
     std::ofstream points(screen.points, std::ios::binary);
-    points << "occurrenceID,scientificName,decimalLongitude,decimalLatitude,virtual_error\n";
-    for (const auto& r : records)
-      points << r.id << "," << r.taxon << "," << number(r.longitude) << "," << number(r.latitude) << "," << r.error << "\n";
+    points << "occurrenceID,scientificName,decimalLongitude,decimalLatitude,virtual_error,virtual_suitability\n";
+    for (std::size_t i = 0; i < records.size(); ++i) {
+      const VirtualRecord& r = records[i];
+      points << r.id << "," << r.taxon << "," << number(r.longitude) << "," << number(r.latitude) << "," << r.error << ","
+             << (std::isnan(suitability[i]) ? "" : number(suitability[i])) << "\n";
+    }
     if (!points) throw OutputError(screen.points, "cannot write the virtual records; check free space in $TMPDIR");
   }
   Evaluation e;
@@ -90,16 +106,10 @@ Evaluation run_evaluation(const EvaluateOptions& o) {
   std::vector<std::vector<JudgedRecord>> judged(n_tests + 1);
   for (std::size_t i = 0; reader.next(row, line); ++i) {
     const VirtualRecord& r = records.at(i);
-    Eigen::VectorXd x(static_cast<Eigen::Index>(area.layer_names.size()));
-    for (std::size_t l = 0; l < area.layer_names.size(); ++l) {
-      const std::string& v = row[column.at(area.layer_names[l])];
-      x[static_cast<Eigen::Index>(l)] = v.empty() ? std::nan("") : std::stod(v);
-    }
-    const double suitability = taxon_of[i]->suitability(x);
     JudgedRecord base;
     base.error = !r.error.empty();
-    base.unsuitable = base.error && suitability < o.unsuitable_below;
-    if (base.error) ++e.errors, e.errors_off_layers += std::isnan(suitability);
+    base.unsuitable = base.error && suitability[i] < o.unsuitable_below;
+    if (base.error) ++e.errors, e.errors_off_layers += std::isnan(suitability[i]);
     const std::string& flags = row[column.at("flags")];
     const std::string separated = ";" + flags + ";";
     for (std::size_t t = 0; t < n_tests; ++t) {

@@ -11,6 +11,7 @@
 
 #include <ogr_spatialref.h>
 
+#include "envsift/detect/skew_scale.hpp"
 #include "envsift/errors.hpp"
 #include "envsift/evaluate/seeded_random.hpp"
 #include "envsift/sample/raster_stack.hpp"
@@ -42,7 +43,7 @@ Response random_response(const StudyArea& area, std::size_t optimum_cell, double
   r.optimum = area.values.row(static_cast<Eigen::Index>(optimum_cell)).transpose();
   r.width.resize(area.values.cols());
   for (Eigen::Index l = 0; l < area.values.cols(); ++l)
-    r.width[l] = random.uniform(width_low, width_high) * std::max(area.sd[l], 1e-12);
+    r.width[l] = std::max(random.uniform(width_low, width_high) * std::max(area.sd[l], 1e-12), area.resolution[l]);
   return r;
 }
 
@@ -111,6 +112,9 @@ StudyArea study_area(const std::vector<std::string>& layers, std::size_t max_cel
   area.sd = ((area.values.rowwise() - mean).array().square().colwise().sum() / static_cast<double>(keep.size() - 1))
                 .sqrt()
                 .transpose();
+  area.resolution.resize(area.values.cols());
+  for (Eigen::Index l = 0; l < area.values.cols(); ++l)
+    area.resolution[l] = resolution(std::vector<double>(area.values.col(l).data(), area.values.col(l).data() + area.values.rows()));
   return area;
 }
 

@@ -4,6 +4,9 @@
 //   envsift_bench layers DIR COUNT WIDTH HEIGHT [W S E N]  float32 GeoTIFFs, tiled, DEFLATE (default: the globe)
 //   envsift_bench points FILE N TAXA SEED [W S E N]        clustered occurrences in Darwin Core columns
 //   envsift_bench discs LAYER POINTS N RADIUS_M...  seconds per record to sample discs of each radius
+//   envsift_bench terrain DIR                       a second invented terrain for `envsift evaluate`
+//                                                   (scripts/evaluate-defaults): elevation, temperature,
+//                                                   rainfall (skewed) and slope (skewed, bounded at 0)
 //   envsift_bench floor POINTS LAYER...             the block-read floor: plain GDAL reading and
 //                                                   decompressing every block the points touch
 //                                                   (geographic layers), in parallel like envsift
@@ -11,6 +14,7 @@
 #include <cmath>
 #include <cstdio>
 #include <algorithm>
+#include <cstdint>
 #include <cstdlib>
 #include <fstream>
 #include <random>
@@ -169,12 +173,68 @@ void block_read_floor(const std::string& points, const std::vector<std::string>&
   std::printf("block_read_floor_seconds,%.3f\nblocks_read,%zu\n", s, blocks_total);
 }
 
+
+// Value noise: hashed lattice values, smoothstep-interpolated; octaves summed (fractal relief).
+double lattice(int x, int y, int octave) {
+  std::uint32_t h = static_cast<std::uint32_t>(x) * 73856093u ^ static_cast<std::uint32_t>(y) * 19349663u ^
+                    static_cast<std::uint32_t>(octave) * 83492791u;
+  h ^= h >> 13, h *= 0x5bd1e995u, h ^= h >> 15;
+  return (h % 10007) / 10006.0;
+}
+double value_noise(double x, double y, int octave) {
+  const int x0 = static_cast<int>(std::floor(x)), y0 = static_cast<int>(std::floor(y));
+  auto smooth = [](double t) { return t * t * (3 - 2 * t); };
+  const double fx = smooth(x - x0), fy = smooth(y - y0);
+  const double a = lattice(x0, y0, octave) + fx * (lattice(x0 + 1, y0, octave) - lattice(x0, y0, octave));
+  const double b = lattice(x0, y0 + 1, octave) + fx * (lattice(x0 + 1, y0 + 1, octave) - lattice(x0, y0 + 1, octave));
+  return a + fy * (b - a);
+}
+
+// The invented "Vennsward uplands": 480 x 480 cells of 0.005 degrees, four Float32 layers.
+void make_terrain(const std::string& dir) {
+  GDALAllRegister();
+  const int n = 480;
+  const double west = 10, north = 3, cell = 0.005;
+  std::vector<float> elevation(n * n), temperature(n * n), rainfall(n * n), slope(n * n);
+  for (int r = 0; r < n; ++r)
+    for (int c = 0; c < n; ++c) {
+      double e = 0, amplitude = 1;
+      for (int o = 0; o < 6; ++o, amplitude *= 0.5) e += amplitude * value_noise(c / (96.0 * amplitude), r / (96.0 * amplitude), o);
+      elevation[r * n + c] = static_cast<float>(std::max(0.0, 2600 * (e - 0.45)));
+    }
+  for (int r = 0; r < n; ++r)
+    for (int c = 0; c < n; ++c) {
+      const int i = r * n + c;
+      const double e = elevation[i];
+      temperature[i] = static_cast<float>(27 - 0.0062 * e + 1.5 * (value_noise(c / 40.0, r / 40.0, 11) - 0.5));
+      rainfall[i] = static_cast<float>(std::exp(5.8 + 0.0009 * e + 0.8 * value_noise(c / 60.0, r / 60.0, 12)));
+      const double dx = (elevation[r * n + std::min(c + 1, n - 1)] - elevation[r * n + std::max(c - 1, 0)]) / (2 * 555.0);
+      const double dy = (elevation[std::min(r + 1, n - 1) * n + c] - elevation[std::max(r - 1, 0) * n + c]) / (2 * 555.0);
+      slope[i] = static_cast<float>(std::atan(std::hypot(dx, dy)) * 180 / M_PI);
+    }
+  OGRSpatialReference srs;
+  srs.importFromEPSG(4326);
+  const std::pair<const char*, std::vector<float>*> layers[] = {
+      {"elevation", &elevation}, {"temperature", &temperature}, {"rainfall", &rainfall}, {"slope", &slope}};
+  for (const auto& [name, values] : layers) {
+    const std::string path = dir + "/" + name + ".tif";
+    GDALDataset* ds = GetGDALDriverManager()->GetDriverByName("GTiff")->Create(path.c_str(), n, n, 1, GDT_Float32, nullptr);
+    double gt[6] = {west, cell, 0, north, 0, -cell};
+    ds->SetGeoTransform(gt);
+    ds->SetSpatialRef(&srs);
+    if (ds->GetRasterBand(1)->RasterIO(GF_Write, 0, 0, n, n, values->data(), n, n, GDT_Float32, 0, 0) != CE_None) std::exit(1);
+    GDALClose(ds);
+  }
+}
+
 }  // namespace
 
 int main(int argc, char** argv) {
   const std::string what = argc > 1 ? argv[1] : "";
   if (what == "layers" && argc >= 6)
     make_layers(argv[2], std::atoi(argv[3]), std::atoi(argv[4]), std::atoi(argv[5]), extent_from(argc, argv, 6));
+  else if (what == "terrain" && argc >= 3)
+    make_terrain(argv[2]);
   else if (what == "points" && argc >= 6)
     make_points(argv[2], std::atol(argv[3]), std::atoi(argv[4]), static_cast<unsigned>(std::atoi(argv[5])),
                 extent_from(argc, argv, 6));

@@ -53,7 +53,12 @@ TEST(DemoScreen, PlantedErrorsRankFirstAndNoRecordIsLost) {
       ++planted;
       ASSERT_FALSE(row[rank].empty()) << t[0];
       EXPECT_LE(std::stoul(row[rank]), 5u) << t[0] << " (" << t[1] << ")";
-      EXPECT_EQ(row[flags], "robust_z;reverse_jackknife;mahalanobis;mahalanobis_robust") << t[0];
+      // every test flags it — or its taxon looks multi-modal to the robust test, which then withholds
+      // all its flags for that taxon and says so (population_guard.hpp)
+      EXPECT_EQ(row[flags].rfind("robust_z;reverse_jackknife;mahalanobis", 0), 0u) << t[0];
+      if (row[flags].find("mahalanobis_robust") == std::string::npos) {
+        EXPECT_NE(row[status].find("looks_multimodal:mahalanobis_robust"), std::string::npos) << t[0];
+      }
     } else {  // an input problem: kept, unranked, its reason code first in the status
       EXPECT_TRUE(row[rank].empty()) << t[0];
       EXPECT_EQ(row[status].substr(0, t[1].size()), t[1]) << t[0];

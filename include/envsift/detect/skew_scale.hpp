@@ -27,4 +27,9 @@ struct SideScales {
 };
 SideScales side_scales(std::vector<double> values, double fallback);
 
+// The resolution of the values: the smallest positive gap between two of them (0 when all are
+// equal). A spread below it is an artefact of ties (a layer of whole months, classes, rounded
+// values) and would make neighbouring classes look like outliers, so the tests never use one.
+double resolution(std::vector<double> values);
+
 }  // namespace envsift

@@ -4,7 +4,8 @@
 //     s(x) = Π_l exp(−(x_l − μ_l)² / (2 σ_l²))
 // (a Gaussian response to every layer, peak 1), with the optimum μ = the values of one random
 // cell of the study area (so the optimum exists there) and σ_l = w · SD_l of the study area,
-// w uniform in [width_low, width_high]. Records are drawn from the study area's cells with
+// w uniform in [width_low, width_high], but never below the layer's resolution (no taxon can
+// tell 3 dry months from 3.2 on a layer of whole months). Records are drawn from the study area's cells with
 // probability proportional to s (with replacement, as repeated collecting at a good site is).
 // A taxon can also have two populations: two optima, each response as above, s = max of the two,
 // and records split between them (`second_share` of them from the second).
@@ -24,6 +25,7 @@ struct StudyArea {
   Eigen::MatrixXd values;                   // cells × layers
   std::vector<std::string> layer_names;
   Eigen::VectorXd sd;                       // per layer, over the cells
+  Eigen::VectorXd resolution;               // per layer: smallest gap between two values (skew_scale.hpp)
 };
 
 // At most `max_cells` cells: all of them when the first layer has no more, else a seeded random
