@@ -10,6 +10,7 @@
 #include <sstream>
 #include <numeric>
 
+#include "envsift/detect/circular_layers.hpp"
 #include "envsift/detect/reverse_jackknife.hpp"
 #include "envsift/detect/robust_mahalanobis.hpp"
 #include "envsift/detect/robust_z.hpp"
@@ -108,6 +109,11 @@ const std::vector<std::string>& all_test_names() {
   return names;
 }
 
+const std::vector<std::string>& default_test_names() {
+  static const std::vector<std::string> names{"robust_z", "reverse_jackknife", "mahalanobis"};
+  return names;
+}
+
 std::string RunSummary::line() const {
   std::string s = "envsift: " + std::to_string(read) + " records read, " + std::to_string(scored) + " scored, " +
                   std::to_string(flagged) + " flagged, " + std::to_string(read - scored) + " not scored";
@@ -197,6 +203,13 @@ RunSummary run_screen(const ScreenOptions& o) {
     summary.seconds.emplace_back(stage, std::chrono::duration<double>(now - clock).count());
     clock = now;
   };
+  if (o.value_columns.empty()) {
+    std::vector<std::string> layer_names;
+    for (const auto& spec : expand_layer_arguments(o.layers)) layer_names.push_back(spec.name);
+    refuse_circular_layers(layer_names);
+  } else {
+    refuse_circular_layers(o.value_columns);
+  }
   Gathered g = o.value_columns.empty() ? detail::sample_rasters(o, added, owned) : detail::read_value_columns(o, added);
   summary.seconds = g.seconds;
   lap("sampling, total");

@@ -52,11 +52,13 @@ enum class RowOrder { input, rank };
 
 // Every test envsift knows, in the order their columns are written.
 const std::vector<std::string>& all_test_names();
+// The tests a screen runs unless told otherwise: the ones the evaluation supports (README).
+const std::vector<std::string>& default_test_names();
 
 struct RunSummary;
 
 struct ScreenOptions : SampleOptions {
-  std::vector<std::string> tests = all_test_names();
+  std::vector<std::string> tests = default_test_names();
   RobustZOptions robust_z;
   ReverseJackknifeOptions jackknife;
   MahalanobisOptions mahalanobis;

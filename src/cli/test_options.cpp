@@ -21,7 +21,8 @@ void add_test_options(po::options_description& d, ScreenOptions& o, TestChoices&
      "tests to run, comma-separated. robust_z: one layer at a time, distance from the taxon's median; "
      "reverse_jackknife: one layer at a time, a gap cutting off a tail; mahalanobis: all layers together, "
      "classical mean/covariance; mahalanobis_robust: all layers together, FAST-MCD estimates that outliers "
-     "cannot distort. All four by default: each catches errors the others miss.")
+     "cannot distort (add it when errors come in batches that could mask each other; it costs most of the "
+     "time). The default three are what the evaluation supports (README, envsift evaluate).")
     ("z-cutoff", po::value(&o.robust_z.cutoff)->default_value(o.robust_z.cutoff)->value_name("Z"),
      "robust_z flags |z| > Z. 3 is 'very conservative' in Leys et al. (2013); lower values flag more good "
      "records, and a record is judged on every layer")

@@ -9,7 +9,7 @@
 namespace envsift::cli {
 
 struct TestChoices {
-  std::string tests = "robust_z,reverse_jackknife,mahalanobis,mahalanobis_robust";
+  std::string tests = "robust_z,reverse_jackknife,mahalanobis";  // default_test_names()
   std::size_t min_records = 10;
 };
 

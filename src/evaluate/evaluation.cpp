@@ -7,6 +7,7 @@
 #include <fstream>
 #include <map>
 
+#include "envsift/detect/circular_layers.hpp"
 #include "envsift/errors.hpp"
 #include "envsift/evaluate/injected_errors.hpp"
 #include "envsift/read/csv_reader.hpp"
@@ -45,6 +46,9 @@ std::string ratio_text(double v) {
 }  // namespace
 
 Evaluation run_evaluation(const EvaluateOptions& o) {
+  std::vector<std::string> layer_names;
+  for (const auto& spec : expand_layer_arguments(o.screen.layers)) layer_names.push_back(spec.name);
+  refuse_circular_layers(layer_names);
   const StudyArea area = study_area(o.screen.layers, o.study_cells, o.taxa.seed, o.screen.assume_crs);
   const auto taxa = make_virtual_taxa(area, o.taxa);
   std::vector<VirtualRecord> records;

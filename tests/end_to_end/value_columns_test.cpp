@@ -58,8 +58,8 @@ TEST(ValueColumns, SingleTaxonNeedsNoTaxonColumn) {
   EXPECT_EQ(t.rows[30][t.column("rank")], "1");
   EXPECT_NE(t.rows[30][t.column("flags")].find("robust_z"), std::string::npos);
   // a value missing on one layer: judged on the others, not by the all-layer tests
-  EXPECT_EQ(t.rows[31][t.column("status")], "value_missing:x;missing_value:mahalanobis;missing_value:mahalanobis_robust");
-  EXPECT_EQ(t.rows[32][t.column("status")], "value_not_numeric:x;missing_value:mahalanobis;missing_value:mahalanobis_robust");
+  EXPECT_EQ(t.rows[31][t.column("status")], "value_missing:x;missing_value:mahalanobis");
+  EXPECT_EQ(t.rows[32][t.column("status")], "value_not_numeric:x;missing_value:mahalanobis");
   EXPECT_FALSE(t.rows[32][t.column("rank")].empty());  // still judged on y by the one-layer tests
   auto missing = run(envsift_binary() + " screen --points " + dir + "/v.csv --value-columns x,y --out " + dir + "/o2.csv");
   EXPECT_EQ(missing.exit_code, 3) << missing.output;  // no taxon column and no --single-taxon

@@ -54,7 +54,7 @@ TEST(ReviewOutputs, GeoPackageHasEveryRecordAndItsDiscs) {
   // every record with coordinates has a disc (the demo gives each an uncertainty)
   EXPECT_NE(o.find("Layer name: uncertainty_discs\nGeometry: Polygon\nFeature Count: 912"), std::string::npos) << o;
   for (const char* field : {"occurrenceID: String", "dem: Real", "rank: Integer64", "score: Real", "reasons: String",
-                            "mahalanobis_robust_stat: Real", "elevation_mismatch_stat: Real"})
+                            "mahalanobis_stat: Real", "mahalanobis_dims: Real", "elevation_mismatch_stat: Real"})
     EXPECT_NE(o.find(field), std::string::npos) << field;
 }
 

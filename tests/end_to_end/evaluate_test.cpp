@@ -1,0 +1,74 @@
+// `envsift evaluate` end to end. The published table (docs/evaluation/demo.csv, shown in the
+// README) is reproduced byte for byte by the same command — envsift's own contract of
+// determinism, also across thread counts. A taxon with two populations in different
+// environments (virtual_taxa.hpp) keeps both under the default settings: neither is flagged as
+// a whole (the population guard, population_guard.hpp).
+#include <fstream>
+
+#include <gtest/gtest.h>
+
+#include "envsift/evaluate/virtual_taxa.hpp"
+#include "../support.hpp"
+
+namespace envsift {
+namespace {
+
+using namespace envsift::testing;
+
+std::vector<std::string> demo_layer_paths() {
+  std::vector<std::string> paths;
+  for (const char* name : {"dem", "temperature", "rainfall", "dry_months"})
+    paths.push_back(source_path(std::string("demo-rasters/") + name + ".tif"));
+  return paths;
+}
+
+TEST(Evaluate, ReproducesThePublishedDemoTable) {
+  const auto dir = temp_dir("evaluate");
+  for (const char* threads : {"1", "2"}) {
+    const auto r = run(envsift_binary() + " evaluate --threads " + threads + demo_layers() + " --out " + dir + "/table.csv");
+    ASSERT_EQ(r.exit_code, 0) << r.output;
+    EXPECT_EQ(read_file(dir + "/table.csv"), read_file(source_path("docs/evaluation/demo.csv"))) << threads << " threads";
+  }
+  // and the README shows the combined row's numbers
+  const Table t = read_csv(source_path("docs/evaluation/demo.csv"));
+  const auto& combined = t.rows.back();
+  ASSERT_EQ(combined[0], "combined");
+  const std::string readme = read_file(source_path("README.md"));
+  for (const char* column : {"recall_unsuitable", "false_flag_rate", "average_precision"})
+    EXPECT_NE(readme.find(combined[t.column(column)]), std::string::npos) << column;
+}
+
+TEST(Evaluate, NeitherOfTwoPopulationsIsFlaggedAsAWhole) {
+  const StudyArea area = study_area(demo_layer_paths(), 200000, 5);
+  const std::size_t records = 400;
+  const VirtualTaxon taxon = two_population_taxon(area, records, 0.4, 3.0, 0.25, 17, "Duplex bimontana");
+  const auto dir = temp_dir("two-populations");
+  {
+    std::ofstream points(dir + "/points.csv");
+    points << "occurrenceID,scientificName,decimalLongitude,decimalLatitude\n";
+    for (std::size_t i = 0; i < records; ++i)
+      points << "P" << i << ",Duplex bimontana," << area.longitude[taxon.cells[i]] << "," << area.latitude[taxon.cells[i]] << "\n";
+  }
+  const auto r = run(envsift_binary() + " screen --points " + dir + "/points.csv" + demo_layers() + " --out " + dir + "/out.csv");
+  ASSERT_EQ(r.exit_code, 0) << r.output;
+  const Table out = read_csv(dir + "/out.csv");
+  ASSERT_EQ(out.rows.size(), records);
+  // the first 60 % of the records come from the first population, the rest from the second
+  const std::size_t first = records - 160;
+  std::size_t flagged_first = 0, flagged_second = 0;
+  for (std::size_t i = 0; i < records; ++i)
+    if (!out.rows[i][out.column("flags")].empty()) ++(i < first ? flagged_first : flagged_second);
+  EXPECT_LT(flagged_first, first / 4) << r.output;
+  EXPECT_LT(flagged_second, (records - first) / 4) << r.output;
+  // the populations really differ: screened as one taxon without the guard, the second is flagged
+  const auto unguarded = run(envsift_binary() + " screen --max-flagged-share 1 --points " + dir + "/points.csv" +
+                             demo_layers() + " --out " + dir + "/unguarded.csv");
+  ASSERT_EQ(unguarded.exit_code, 0);
+  const Table u = read_csv(dir + "/unguarded.csv");
+  std::size_t unguarded_second = 0;
+  for (std::size_t i = first; i < records; ++i) unguarded_second += !u.rows[i][u.column("flags")].empty();
+  EXPECT_GT(unguarded_second, (records - first) * 3 / 4);
+}
+
+}  // namespace
+}  // namespace envsift
