@@ -42,7 +42,7 @@ std::string fixed(double v, int decimals) {
 
 ReportBuilder::ReportBuilder(const ScreenOptions& o, const Gathered& g, const std::vector<std::unique_ptr<Detector>>& detectors)
     : o_(o), g_(g), detectors_(detectors), units_(layer_units(o, g.layer_names.size())),
-      report_(o.report, relief_of(o), o.seed, o.mahalanobis.min_records) {
+      report_(o.report, relief_of(o), o.seed, o.mahalanobis.min_records, o.report_taxa) {
   const auto& columns = g.table.columns;
   if (const auto it = std::find(columns.begin(), columns.end(), o.reader.columns.id); it != columns.end())
     id_column_ = static_cast<std::size_t>(it - columns.begin());

@@ -73,6 +73,7 @@ struct ScreenOptions : SampleOptions {
   std::string summary;                     // per-taxon summary CSV; empty = none
   std::string gis;                         // GeoPackage or GeoJSON of all records; empty = none
   std::string report;                      // HTML report; empty = none
+  std::size_t report_taxa = 100;           // taxon sections drawn in it at most (the worst taxa)
   // The run manifest as JSON, for the report (called once, at the end, with the run's summary).
   std::function<std::string(const RunSummary&)> manifest_json;
   // Taxon shards for clusters: screen only the taxa whose stable hash modulo `shard_count` is

@@ -164,7 +164,12 @@ void write_manifest_if_asked(const po::variables_map& vm, const std::string& com
 }
 
 void report(const RunSummary& summary, const po::variables_map& vm, const std::string& wrote) {
-  for (const auto& w : summary.warnings) std::cerr << "envsift: warning: " << w << "\n";
+  constexpr std::size_t kShown = 20;  // thousands of taxa can each warn; the rest are in the status codes
+  for (std::size_t i = 0; i < summary.warnings.size() && i < kShown; ++i)
+    std::cerr << "envsift: warning: " << summary.warnings[i] << "\n";
+  if (summary.warnings.size() > kShown)
+    std::cerr << "envsift: warning: " << summary.warnings.size() - kShown
+              << " more warnings like these (every record concerned carries its reason code in `status`)\n";
   if (vm.count("timings") && vm["timings"].as<bool>())
     for (const auto& [stage, seconds] : summary.seconds) std::cerr << "envsift: time: " << stage << " " << seconds << " s\n";
   std::cerr << summary.codes_line() << "\n" << summary.line() << "\nenvsift: wrote " << wrote << "\n";

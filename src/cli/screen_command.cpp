@@ -43,6 +43,9 @@ int screen_command(int argc, char** argv) {
      "also write an HTML report for reviewers: one self-contained file (no network, no scripts) with the run "
      "overview, the top suspects, and per taxon its suspects, a map (shaded relief from --dem) and plots of "
      "its values with the cutoffs")
+    ("report-taxa", po::value(&o.report_taxa)->default_value(o.report_taxa)->value_name("N"),
+     "draw sections for at most N taxa in the report: all when there are no more, else the N whose worst "
+     "suspect scores highest (the index lists every taxon); keeps the report quick to open")
     ("summary", po::value(&o.summary)->value_name("FILE.csv"),
      "also write one row per taxon: records, judged, flagged per test and, with --dem, the taxon's robust "
      "elevation band (median ± z-cutoff robust SD over distinct cells) and the records outside it")

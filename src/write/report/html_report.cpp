@@ -1,7 +1,9 @@
 #include "envsift/write/report/html_report.hpp"
 
 #include <cmath>
+#include <algorithm>
 #include <cstdio>
+#include <set>
 
 #include "envsift/write/csv_writer.hpp"
 #include "envsift/write/value_format.hpp"
@@ -53,6 +55,20 @@ std::string spaced(const std::string& list) {
   return out;
 }
 
+// Whether some suspect's value lies beyond a one-layer test's cutoff on layer l: only such
+// layers get a distribution plot, so a report of many layers and taxa stays small.
+bool beyond_a_cutoff(const TaxonPicture& t, std::size_t l) {
+  for (const auto& r : t.records) {
+    if (!r.suspect || !std::isfinite(r.value[l])) continue;
+    const double x = r.value[l];
+    const auto& z = t.layers[l].robust_z;
+    const auto& gap = t.layers[l].jackknife;  // flags its bounds themselves
+    if (z && (x < z->first || x > z->second)) return true;
+    if (gap && (x <= gap->first || x >= gap->second)) return true;
+  }
+  return false;
+}
+
 std::string value_text(double v) { return std::isfinite(v) ? svg::number(v) : ""; }
 
 // The pixel size written in an SVG document's root element.
@@ -71,12 +87,15 @@ std::string picture(const std::string& document, const std::string& alt) {
 
 std::string taxon_anchor(std::size_t index) { return "taxon-" + std::to_string(index); }
 
-HtmlReport::HtmlReport(std::string path, ReliefSource relief, std::uint64_t seed, std::size_t min_rows)
-    : path_(std::move(path)), relief_(std::move(relief)), seed_(seed), min_rows_(min_rows) {}
+HtmlReport::HtmlReport(std::string path, ReliefSource relief, std::uint64_t seed, std::size_t min_rows,
+                       std::size_t max_taxa)
+    : path_(std::move(path)), relief_(std::move(relief)), seed_(seed), min_rows_(min_rows), max_taxa_(max_taxa) {}
 
 void HtmlReport::add_taxon(std::size_t index, const TaxonPicture& t, std::size_t judged) {
   std::size_t suspects = 0;
-  for (const auto& r : t.records) suspects += r.suspect;
+  double worst = 0;
+  for (const auto& r : t.records)
+    if (r.suspect) ++suspects, worst = std::max(worst, r.score);
   std::string s = "<section class=\"taxon\" id=\"" + taxon_anchor(index) + "\"><h2><i>" + escape(t.taxon) + "</i></h2>";
   s += "<p>" + std::to_string(t.records.size()) + " records, " + std::to_string(judged) + " judged, <span class=\"flagged\">" +
        std::to_string(suspects) + " suspect</span>; statistics from " + std::to_string(t.reference.rows()) + " " +
@@ -89,8 +108,17 @@ void HtmlReport::add_taxon(std::size_t index, const TaxonPicture& t, std::size_t
   if (suspects > 0) {
     if (t.layers.size() >= 2)
       s += picture(pair_plot(t, choose_pair(t, seed_, min_rows_)), "two layers with the robust tolerance ellipse");
-    for (std::size_t l = 0; l < t.layers.size(); ++l)
-      s += picture(distribution_plot(t, l), t.layers[l].name + " distribution with cutoffs and suspects");
+    std::vector<std::string> quiet;  // layers on which no suspect is beyond a one-layer cutoff
+    for (std::size_t l = 0; l < t.layers.size(); ++l) {
+      if (beyond_a_cutoff(t, l)) s += picture(distribution_plot(t, l), t.layers[l].name + " distribution with cutoffs and suspects");
+      else quiet.push_back(t.layers[l].name);
+    }
+    if (!quiet.empty()) {
+      std::string names;
+      for (const auto& q : quiet) names += (names.empty() ? "" : ", ") + q;
+      s += "<p class=\"note\">Not plotted, as no suspect lies beyond a one-layer cutoff there (values in the table): " +
+           escape(names) + ".</p>";
+    }
   } else {
     s += "<p class=\"note\">No suspect: the layer plots are left out to keep the report small.</p>";
   }
@@ -118,10 +146,18 @@ void HtmlReport::add_taxon(std::size_t index, const TaxonPicture& t, std::size_t
   s += "</section>\n";
   std::lock_guard<std::mutex> guard(lock_);
   sections_.append({s});
-  taxa_[index] = {t.taxon, t.records.size(), judged, suspects, sections_.size() - 1};
+  taxa_[index] = {t.taxon, t.records.size(), judged, suspects, sections_.size() - 1, worst};
 }
 
 void HtmlReport::finish(const ReportOverview& o) {
+  // which taxa get a section: all, or the max_taxa_ whose worst suspect scores highest
+  std::vector<std::size_t> order;
+  for (const auto& [index, e] : taxa_) order.push_back(index);
+  std::set<std::size_t> drawn(order.begin(), order.end());
+  if (order.size() > max_taxa_) {
+    std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) { return taxa_[a].worst > taxa_[b].worst; });
+    drawn = std::set<std::size_t>(order.begin(), order.begin() + static_cast<std::ptrdiff_t>(max_taxa_));
+  }
   CsvWriter out(path_);  // the atomic writer, for one text document
   std::string s = kHead;
   s += "<title>" + escape(o.title) + "</title>" + kStyle + "</head><body>";
@@ -150,14 +186,19 @@ void HtmlReport::finish(const ReportOverview& o) {
     for (const auto& [code, count] : o.codes) s += "<tr>" + cell(code) + cell(std::to_string(count), true) + "</tr>";
     s += "</table></details>";
   }
-  for (const auto& w : o.warnings) s += "<p class=\"caution\">Warning: " + escape(w) + "</p>";
+  if (!o.warnings.empty()) {
+    s += std::string("<details") + (o.warnings.size() <= 5 ? " open" : "") + "><summary>" +
+         std::to_string(o.warnings.size()) + " warning(s)</summary><ul>";
+    for (const auto& w : o.warnings) s += "<li>" + escape(w) + "</li>";
+    s += "</ul></details>";
+  }
 
   s += "<h2 id=\"suspects\">Top suspects</h2>";
   if (o.top.empty()) s += "<p>No record was flagged.</p>";
   else {
     s += "<table><tr><th>rank</th><th>record</th><th>taxon</th><th>score</th><th>flags</th><th>reasons</th></tr>";
     for (const auto& r : o.top) {
-      const std::string taxon = r.taxon_index == static_cast<std::size_t>(-1)
+      const std::string taxon = r.taxon_index == static_cast<std::size_t>(-1) || !drawn.count(r.taxon_index)
                                     ? escape(r.taxon)
                                     : "<a href=\"#" + taxon_anchor(r.taxon_index) + "\"><i>" + escape(r.taxon) + "</i></a>";
       s += "<tr>" + cell(std::to_string(r.rank), true) + cell(r.record) + "<td>" + taxon + "</td>" +
@@ -165,15 +206,21 @@ void HtmlReport::finish(const ReportOverview& o) {
     }
     s += "</table>";
   }
-  s += "<h2 id=\"index\">Taxa</h2><table><tr><th>taxon</th><th>records</th><th>judged</th><th>suspects</th></tr>";
+  s += "<h2 id=\"index\">Taxa</h2>";
+  if (drawn.size() < taxa_.size())
+    s += "<p class=\"note\">Sections are drawn for the " + std::to_string(drawn.size()) + " taxa whose worst suspect "
+         "scores highest (--report-taxa); the others are listed without a link, their records are in the output CSV.</p>";
+  s += "<table><tr><th>taxon</th><th>records</th><th>judged</th><th>suspects</th></tr>";
   for (const auto& [index, e] : taxa_)
-    s += "<tr><td><a href=\"#" + taxon_anchor(index) + "\"><i>" + escape(e.name) + "</i></a></td>" +
+    s += "<tr><td>" + (drawn.count(index) ? "<a href=\"#" + taxon_anchor(index) + "\"><i>" + escape(e.name) + "</i></a>"
+                                         : "<i>" + escape(e.name) + "</i>") + "</td>" +
          cell(std::to_string(e.records), true) + cell(std::to_string(e.judged), true) +
          cell(std::to_string(e.suspects), true) + "</tr>";
   s += "</table>";
   out.write_text(s);
   std::vector<std::string> section;
   for (const auto& [index, e] : taxa_) {
+    if (!drawn.count(index)) continue;
     sections_.read(e.section, section);
     out.write_text(section.at(0));
   }

@@ -45,7 +45,10 @@ struct ReliefSource {
 
 class HtmlReport {
  public:
-  explicit HtmlReport(std::string path, ReliefSource relief = {}, std::uint64_t seed = 1, std::size_t min_rows = 10);
+  // `max_taxa`: at most this many taxon sections are written — all taxa when there are no more,
+  // else the taxa whose worst suspect scores highest; the index lists every taxon.
+  explicit HtmlReport(std::string path, ReliefSource relief = {}, std::uint64_t seed = 1, std::size_t min_rows = 10,
+                      std::size_t max_taxa = 100);
 
   // Thread-safe. `index`: the taxon's position in the index (taxa are listed in this order).
   void add_taxon(std::size_t index, const TaxonPicture& picture, std::size_t judged);
@@ -56,11 +59,12 @@ class HtmlReport {
   struct Entry {
     std::string name;
     std::size_t records = 0, judged = 0, suspects = 0, section = 0;
+    double worst = 0;  // highest score of its suspects
   };
   std::string path_;
   ReliefSource relief_;
   std::uint64_t seed_;
-  std::size_t min_rows_;
+  std::size_t min_rows_, max_taxa_;
   std::mutex lock_;
   FieldStore sections_;
   std::map<std::size_t, Entry> taxa_;
