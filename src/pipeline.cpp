@@ -325,7 +325,7 @@ RunSummary run_screen(const ScreenOptions& o) {
         }
         if (o.progress) o.progress->advance(1);
       },
-      &test_seconds);
+      &test_seconds, o.populations);
   lap("screen");
   for (std::size_t t = 0; t < detectors.size(); ++t) summary.seconds.emplace_back("test " + names[t] + " (CPU)", test_seconds[t]);
   // Records outside every taxon: only the elevation check can judge them.

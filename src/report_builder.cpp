@@ -62,6 +62,7 @@ void ReportBuilder::taxon(const ScreenedTaxon& taxon, const std::vector<Verdict>
   TaxonPicture p;
   p.taxon = taxon.taxon;
   p.reference_label = o_.distinct_cells ? "distinct cells" : "records";
+  p.two_populations = taxon.two_populations;
   p.reference.resize(static_cast<Eigen::Index>(taxon.reference.size()), static_cast<Eigen::Index>(layers));
   for (std::size_t r = 0; r < taxon.reference.size(); ++r)
     p.reference.row(static_cast<Eigen::Index>(r)) = g_.values.row(static_cast<Eigen::Index>(taxon.reference[r]));

@@ -14,6 +14,7 @@
 #include "envsift/detect/reported_elevation.hpp"
 #include "envsift/detect/robust_z.hpp"
 #include "envsift/read/point_reader.hpp"
+#include "envsift/group/populations.hpp"
 #include "envsift/score/population_guard.hpp"
 #include "envsift/progress.hpp"
 #include "envsift/sample/raster_stack.hpp"
@@ -63,6 +64,7 @@ struct ScreenOptions : SampleOptions {
   ReverseJackknifeOptions jackknife;
   MahalanobisOptions mahalanobis;
   McdOptions mcd;
+  PopulationOptions populations;  // split a taxon with two separate populations and judge each
   PopulationGuard population;  // withholds a test's flags from a taxon it flags wholesale
   bool distinct_cells = true;  // estimate each taxon's statistics on distinct cells
   std::uint64_t seed = 1;

@@ -46,6 +46,10 @@ void add_test_options(po::options_description& d, ScreenOptions& o, TestChoices&
      "default, so that fifty records in one cell neither zero the spread nor hide an outlier)")
     ("seed", po::value(&o.seed)->default_value(o.seed)->value_name("N"),
      "seed of the random subsets of mahalanobis_robust; the same seed gives the same output")
+    ("populations", po::value<std::string>()->default_value("split")->value_name("split|one"),
+     "split: a taxon whose records form two separate groups in the layers' space (k-means with a density "
+     "valley between the groups; each at least 20 % of the taxon) is judged as two populations, each on its "
+     "own; one: every taxon is judged as one")
     ("max-flagged-share", po::value(&o.population.max_share)->default_value(o.population.max_share)->value_name("S"),
      "when one test flags more than this share of a taxon's judged records (and at least "
      "5), the taxon probably has several populations, not that many errors: that test's flags are withheld "
@@ -65,6 +69,11 @@ void finish_test_options(const po::variables_map& vm, ScreenOptions& o, const Te
   if (!(o.mahalanobis.quantile > 0 && o.mahalanobis.quantile < 1)) throw UsageError("--chi2-quantile must be between 0 and 1");
   if (c.min_records < 3) throw UsageError("--min-records must be at least 3");
   o.robust_z.min_records = o.jackknife.min_records = o.mahalanobis.min_records = c.min_records;
+  const std::string populations = vm["populations"].as<std::string>();
+  if (populations != "split" && populations != "one")
+    throw UsageError("--populations must be split or one, not '" + populations + "'");
+  o.populations.enabled = populations == "split";
+  o.populations.min_rows = c.min_records;
   if (!(o.population.max_share > 0 && o.population.max_share <= 1))
     throw UsageError("--max-flagged-share must be above 0 and at most 1");
 }

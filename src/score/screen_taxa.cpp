@@ -22,7 +22,7 @@ std::uint64_t stable_hash(const std::string& text, std::uint64_t basis) {
 
 std::vector<ScreenedTaxon> screen_taxa(const ScreeningInput& in, const std::vector<std::unique_ptr<Detector>>& detectors,
                                        bool distinct_cells, std::uint64_t seed, const TaxonSink& sink,
-                                       std::vector<double>* test_seconds) {
+                                       std::vector<double>* test_seconds, const PopulationOptions& population_options) {
   std::mutex timing;
   if (test_seconds) test_seconds->assign(detectors.size(), 0.0);
   const auto L = in.values.cols();
@@ -59,16 +59,46 @@ std::vector<ScreenedTaxon> screen_taxa(const ScreeningInput& in, const std::vect
     Eigen::MatrixXd reference(static_cast<Eigen::Index>(reference_rows.size()), L);
     for (std::size_t r = 0; r < reference_rows.size(); ++r) reference.row(static_cast<Eigen::Index>(r)) = records.row(reference_rows[r]);
 
-    const TaxonValues taxon{reference, records, in.layer_names, stable_hash(g.taxon, seed ^ 0xcbf29ce484222325ull),
-                            in.lower ? &lower : nullptr, in.upper ? &upper : nullptr};
+    const std::uint64_t taxon_seed = stable_hash(g.taxon, seed ^ 0xcbf29ce484222325ull);
+    auto judge = [&](const TaxonValues& values) {
+      std::vector<std::vector<Finding>> found;
+      for (std::size_t t = 0; t < detectors.size(); ++t) {
+        const auto start = std::chrono::steady_clock::now();
+        found.push_back(detectors[t]->judge(values));
+        if (test_seconds) {
+          const double s = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+          std::lock_guard<std::mutex> lock(timing);
+          (*test_seconds)[t] += s;
+        }
+      }
+      return found;
+    };
+    const Populations split = find_populations(reference, population_options);
     std::vector<std::vector<Finding>> findings;
-    for (std::size_t t = 0; t < detectors.size(); ++t) {
-      const auto start = std::chrono::steady_clock::now();
-      findings.push_back(detectors[t]->judge(taxon));
-      if (test_seconds) {
-        const double s = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
-        std::lock_guard<std::mutex> lock(timing);
-        (*test_seconds)[t] += s;
+    if (!split.split) {
+      findings = judge({reference, records, in.layer_names, taxon_seed, in.lower ? &lower : nullptr, in.upper ? &upper : nullptr});
+    } else {
+      // each population judged on its own; findings go back to the taxon's record order
+      screened.two_populations = true;
+      findings.assign(detectors.size(), std::vector<Finding>(static_cast<std::size_t>(rows)));
+      for (std::uint8_t k = 0; k < 2; ++k) {
+        auto pick = [](const Eigen::MatrixXd& m, const std::vector<Eigen::Index>& at) {
+          Eigen::MatrixXd out(static_cast<Eigen::Index>(at.size()), m.cols());
+          for (std::size_t i = 0; i < at.size(); ++i) out.row(static_cast<Eigen::Index>(i)) = m.row(at[i]);
+          return out;
+        };
+        std::vector<Eigen::Index> mine, my_reference;
+        for (Eigen::Index r = 0; r < rows; ++r)
+          if (split.population_of(records.row(r)) == k) mine.push_back(r);
+        for (Eigen::Index r = 0; r < reference.rows(); ++r)
+          if (split.of_reference[static_cast<std::size_t>(r)] == k) my_reference.push_back(r);
+        const Eigen::MatrixXd part_reference = pick(reference, my_reference), part_records = pick(records, mine);
+        Eigen::MatrixXd part_lower, part_upper;
+        if (in.lower) part_lower = pick(lower, mine), part_upper = pick(upper, mine);
+        const auto found = judge({part_reference, part_records, in.layer_names, taxon_seed + k,
+                                  in.lower ? &part_lower : nullptr, in.upper ? &part_upper : nullptr});
+        for (std::size_t t = 0; t < detectors.size(); ++t)
+          for (std::size_t i = 0; i < mine.size(); ++i) findings[t][static_cast<std::size_t>(mine[i])] = found[t][i];
       }
     }
     sink(screened, findings);

@@ -10,6 +10,7 @@
 #include <Eigen/Core>
 
 #include "envsift/detect/detector.hpp"
+#include "envsift/group/populations.hpp"
 
 namespace envsift {
 
@@ -26,6 +27,7 @@ struct ScreeningInput {
 
 struct ScreenedTaxon {
   std::size_t index = 0;               // position among the taxa, sorted by name
+  bool two_populations = false;        // judged as two populations
   std::string taxon;
   std::vector<std::size_t> records;    // ascending
   std::vector<std::size_t> reference;  // the records its statistics were estimated from
@@ -42,9 +44,11 @@ using TaxonSink = std::function<void(const ScreenedTaxon&, std::vector<std::vect
 // taxon's result depends on neither thread count nor which other taxa are in the file.
 // Returns the taxa, sorted by name (records and reference rows filled in).
 // `test_seconds` (optional) receives each test's computing time, summed over threads.
+// populations: a taxon with two separate populations (group/populations.hpp) is judged as two.
 std::vector<ScreenedTaxon> screen_taxa(const ScreeningInput& input, const std::vector<std::unique_ptr<Detector>>& detectors,
                                        bool distinct_cells, std::uint64_t seed, const TaxonSink& sink,
-                                       std::vector<double>* test_seconds = nullptr);
+                                       std::vector<double>* test_seconds = nullptr,
+                                       const PopulationOptions& populations = {false});
 
 // A 64-bit FNV-1a hash: stable across machines, compilers and runs.
 std::uint64_t stable_hash(const std::string& text, std::uint64_t basis = 0xcbf29ce484222325ull);

@@ -100,6 +100,9 @@ void HtmlReport::add_taxon(std::size_t index, const TaxonPicture& t, std::size_t
   s += "<p>" + std::to_string(t.records.size()) + " records, " + std::to_string(judged) + " judged, <span class=\"flagged\">" +
        std::to_string(suspects) + " suspect</span>; statistics from " + std::to_string(t.reference.rows()) + " " +
        escape(t.reference_label) + ". <a href=\"#index\">back to the index</a></p>";
+  if (t.two_populations)
+    s += "<p class=\"note\">Its records form two separate groups in the layers' space, so each group was judged "
+         "against itself as a population; the plots and cutoffs below show the taxon as a whole.</p>";
   s += "<div class=\"pictures\">";
   if (const auto box = map_box(t)) {
     const std::string relief = relief_.path.empty() ? "" : shaded_relief_png(relief_.path, relief_.band, *box);

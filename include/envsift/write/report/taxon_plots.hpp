@@ -39,6 +39,7 @@ struct TaxonPicture {
   Eigen::MatrixXd reference;       // rows the statistics came from × layers (NaN = none)
   std::string reference_label;     // what a reference row is, e.g. "distinct cells"
   std::vector<PlotRecord> records; // every record of the taxon; suspects in order of score
+  bool two_populations = false;    // judged as two populations (group/populations.hpp)
 };
 
 std::string distribution_plot(const TaxonPicture& taxon, std::size_t layer);
