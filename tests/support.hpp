@@ -17,11 +17,18 @@ namespace envsift::testing {
 inline std::string source_path(const std::string& relative) { return std::string(ENVSIFT_SOURCE_DIR) + "/" + relative; }
 inline std::string envsift_binary() { return ENVSIFT_BINARY; }
 
-// " --layers" and the four demo rasters, in the order the demo uses.
+// The four demo rasters, in the order the demo uses.
+inline std::vector<std::string> demo_layer_paths() {
+  std::vector<std::string> paths;
+  for (const char* name : {"dem", "temperature", "rainfall", "dry_months"})
+    paths.push_back(source_path(std::string("demo-rasters/") + name + ".tif"));
+  return paths;
+}
+
+// " --layers" and the four demo rasters.
 inline std::string demo_layers() {
   std::string s = " --layers";
-  for (const char* name : {"dem", "temperature", "rainfall", "dry_months"})
-    s += " " + source_path(std::string("demo-rasters/") + name + ".tif");
+  for (const auto& path : demo_layer_paths()) s += " " + path;
   return s;
 }
 

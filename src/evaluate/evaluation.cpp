@@ -13,6 +13,7 @@
 #include "envsift/read/csv_reader.hpp"
 #include "envsift/sample/raster_stack.hpp"
 #include "envsift/write/csv_writer.hpp"
+#include "envsift/write/value_format.hpp"
 
 namespace envsift {
 namespace {
@@ -30,12 +31,6 @@ struct ScratchDirectory {
     std::filesystem::remove_all(path, ignored);
   }
 };
-
-std::string number(double v) {
-  char buf[32];
-  std::snprintf(buf, sizeof buf, "%.10g", v);
-  return buf;
-}
 
 std::string ratio_text(double v) {
   char buf[32];
@@ -88,8 +83,8 @@ Evaluation run_evaluation(const EvaluateOptions& o) {
     points << "occurrenceID,scientificName,decimalLongitude,decimalLatitude,virtual_error,virtual_suitability\n";
     for (std::size_t i = 0; i < records.size(); ++i) {
       const VirtualRecord& r = records[i];
-      points << r.id << "," << r.taxon << "," << number(r.longitude) << "," << number(r.latitude) << "," << r.error << ","
-             << (std::isnan(suitability[i]) ? "" : number(suitability[i])) << "\n";
+      points << r.id << "," << r.taxon << "," << format_value(r.longitude) << "," << format_value(r.latitude) << "," << r.error << ","
+             << format_value(suitability[i]) << "\n";
     }
     if (!points) throw OutputError(screen.points, "cannot write the virtual records; check free space in $TMPDIR");
   }

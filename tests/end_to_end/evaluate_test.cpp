@@ -16,13 +16,6 @@ namespace {
 
 using namespace envsift::testing;
 
-std::vector<std::string> demo_layer_paths() {
-  std::vector<std::string> paths;
-  for (const char* name : {"dem", "temperature", "rainfall", "dry_months"})
-    paths.push_back(source_path(std::string("demo-rasters/") + name + ".tif"));
-  return paths;
-}
-
 TEST(Evaluate, ReproducesThePublishedDemoTable) {
   const auto dir = temp_dir("evaluate");
   for (const char* threads : {"1", "2"}) {

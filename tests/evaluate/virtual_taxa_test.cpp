@@ -16,13 +16,6 @@ namespace {
 
 using namespace envsift::testing;
 
-std::vector<std::string> demo_layer_paths() {
-  std::vector<std::string> paths;
-  for (const char* name : {"dem", "temperature", "rainfall", "dry_months"})
-    paths.push_back(source_path(std::string("demo-rasters/") + name + ".tif"));
-  return paths;
-}
-
 TEST(StudyArea, ValuesEqualGdallocationinfoAtCellCentres) {
   const StudyArea area = study_area(demo_layer_paths(), 2000, 3);
   ASSERT_GT(area.values.rows(), 1000);
