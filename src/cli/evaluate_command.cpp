@@ -1,20 +1,33 @@
 #include <cstdio>
 #include <iostream>
 
-#include <omp.h>
-
 #include "commands.hpp"
+#include "envsift/detect/test_registry.hpp"
 #include "envsift/errors.hpp"
 #include "envsift/evaluate/evaluation.hpp"
+#include "envsift/settings/run_options.hpp"
 #include "options.hpp"
-#include "test_options.hpp"
 
 namespace envsift::cli {
+namespace {
+
+// The screen's options an evaluation takes: its layers and how they are sampled, and every test option.
+std::vector<OptionSpec> screen_options_for_evaluation() {
+  std::vector<OptionSpec> options;
+  for (const auto* group : {&input_options(), &sampling_options()})
+    for (const auto& o : *group)
+      if (o.name == "layers" || o.name == "method" || o.name == "assume-crs" || o.name == "threads") options.push_back(o);
+  options.insert(options.end(), test_options().begin(), test_options().end());
+  return options;
+}
+
+}  // namespace
 
 int evaluate_command(int argc, char** argv) {
   EvaluateOptions e;
-  ScreenOptions& o = e.screen;
-  TestChoices choices;
+  std::string out;
+  ScreenSettings& o = e.screen;
+  const std::vector<OptionSpec> screen_options = screen_options_for_evaluation();
   po::options_description d(
       "Measure what the tests find on your own rasters: build virtual taxa with a known response to every\n"
       "layer (Gaussian, random optimum and width; records drawn in proportion to suitability), put known\n"
@@ -25,9 +38,7 @@ int evaluate_command(int argc, char** argv) {
       "the same table.\n\nOptions",
       100, 50);
   d.add_options()
-    ("layers", po::value(&o.layers)->multitoken()->required()->value_name("RASTER..."),
-     "raster layers (as for screen); the first one's cells are the study area")
-    ("out", po::value(&o.out)->required()->value_name("FILE.csv"), "where to write the table (CSV)")
+    ("out", po::value(&out)->required()->value_name("FILE.csv"), "where to write the table (CSV)")
     ("taxa", po::value(&e.taxa.taxa)->default_value(e.taxa.taxa)->value_name("N"), "virtual taxa to build")
     ("taxon-records", po::value<std::string>()->default_value("12-3000")->value_name("MIN-MAX"),
      "records per taxon, log-uniform between MIN and MAX")
@@ -44,39 +55,30 @@ int evaluate_command(int argc, char** argv) {
     ("study-cells", po::value(&e.study_cells)->default_value(e.study_cells)->value_name("N"),
      "candidate cells, a seeded random choice when the first layer has more")
     ("keep-screened", po::value(&e.keep_screened)->value_name("FILE.csv"),
-     "also keep the screen output of the virtual records (their column virtual_error names each error)")
-    ("method", po::value<std::string>()->default_value("nearest")->value_name("nearest|bilinear"), "as for screen")
-    ("assume-crs", po::value(&o.assume_crs)->value_name("CRS"), "as for screen")
-    ("threads", po::value<int>()->value_name("N"), "threads to use; results do not depend on it");
-  add_test_options(d, o, choices);
+     "also keep the screen output of the virtual records (their column virtual_error names each error)");
+  add_declared(d, screen_options, {"layers"});
   po::variables_map vm;
   if (!parse(argc, argv, "evaluate", "--layers RASTER... --out FILE.csv [options]", d, vm)) return 0;
-  finish_test_options(vm, o, choices);
-  e.taxa.seed = o.seed;
-  o.discs.enabled = false;
-  o.method = vm["method"].as<std::string>() == "bilinear" ? Interpolation::bilinear : Interpolation::nearest;
-  if (vm.count("threads")) {
-    if (vm["threads"].as<int>() < 1) throw UsageError("--threads must be at least 1");
-    omp_set_num_threads(vm["threads"].as<int>());
-  }
+  apply_declared(vm, screen_options, o);
+  o.sampling.discs = false;
+  o.command_line = command_line("evaluate", argc, argv);
+  // before the virtual taxa are built, which takes a while (run_screen checks the rest)
+  validate_tests(o);
+  check_options(sampling_options(), o);
+  apply_process_settings(o.sampling);
+  e.taxa.seed = o.tests.seed;
   const std::string range = vm["taxon-records"].as<std::string>();
   unsigned long low = 0, high = 0;
-  if (std::sscanf(range.c_str(), "%lu-%lu", &low, &high) != 2 || low < 3 || high < low)
+  if (std::sscanf(range.c_str(), "%lu-%lu", &low, &high) != 2)
     throw UsageError("--taxon-records must be MIN-MAX with 3 <= MIN <= MAX, e.g. 12-3000, not '" + range + "'");
   e.taxa.min_records = low, e.taxa.max_records = high;
   const std::string widths = vm["response-width"].as<std::string>();
-  if (std::sscanf(widths.c_str(), "%lf-%lf", &e.taxa.width_low, &e.taxa.width_high) != 2 || !(e.taxa.width_low > 0) ||
-      e.taxa.width_high < e.taxa.width_low)
+  if (std::sscanf(widths.c_str(), "%lf-%lf", &e.taxa.width_low, &e.taxa.width_high) != 2)
     throw UsageError("--response-width must be LOW-HIGH with 0 < LOW <= HIGH, e.g. 0.1-0.4, not '" + widths + "'");
-  if (e.taxa.taxa < 1) throw UsageError("--taxa must be at least 1");
-  if (!(e.error_share > 0 && e.error_share < 0.5)) throw UsageError("--error-share must be above 0 and below 0.5");
-  if (!(e.taxa.two_population_share >= 0 && e.taxa.two_population_share <= 1))
-    throw UsageError("--two-population-share must be between 0 and 1");
-  if (!(e.unsuitable_below > 0 && e.unsuitable_below < 1)) throw UsageError("--unsuitable-below must be between 0 and 1");
-  if (e.study_cells < 100) throw UsageError("--study-cells must be at least 100");
+  validate(e);
 
   const Evaluation result = run_evaluation(e);
-  write_evaluation(o.out, result);
+  write_evaluation(out, result);
   for (const auto& w : result.screen.warnings) std::cerr << "envsift: note: " << w << "\n";
   std::fprintf(stderr, "envsift: %zu virtual taxa, %zu records, %zu errors (%zu fell off the layers)\n", result.taxa,
                result.records, result.errors, result.errors_off_layers);
@@ -84,7 +86,7 @@ int evaluate_command(int argc, char** argv) {
   for (const auto& r : result.rows)
     std::fprintf(stderr, "%-20s %9.4f %9.4f %9.4f %9.4f %9.4f\n", r.test.c_str(), r.metrics.recall_unsuitable,
                  r.metrics.recall_all, r.metrics.false_flag_rate, r.metrics.precision, r.metrics.average_precision);
-  std::cerr << "envsift: wrote " << o.out << "\n";
+  std::cerr << "envsift: wrote " << out << "\n";
   return 0;
 }
 

@@ -7,7 +7,7 @@
 
 #include "commands.hpp"
 #include "envsift/errors.hpp"
-#include "envsift/write/csv_writer.hpp"
+#include "envsift/write/atomic_file.hpp"
 
 namespace {
 

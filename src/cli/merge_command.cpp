@@ -1,6 +1,8 @@
 #include <iostream>
 
 #include "commands.hpp"
+#include "envsift/errors.hpp"
+#include "envsift/run/run.hpp"
 #include "options.hpp"
 
 namespace envsift::cli {
@@ -17,13 +19,14 @@ int merge_command(int argc, char** argv) {
     ("out", po::value(&out)->required()->value_name("FILE.csv"), "the merged result")
     ("help,h", "show this help");
   po::options_description hidden;
-  hidden.add_options()("shards", po::value(&shards)->required()->multitoken(), "shard outputs");
+  hidden.add_options()("shards", po::value(&shards)->multitoken(), "shard outputs");
   po::options_description all;
   all.add(d).add(hidden);
   po::positional_options_description positional;
   positional.add("shards", -1);
   po::variables_map vm;
   if (!parse(argc, argv, "merge", "SHARD_OUTPUT... --out FILE.csv", all, vm, &positional, &d)) return 0;
+  if (shards.empty()) throw UsageError("give the shard outputs: envsift merge SHARD_OUTPUT... --out FILE.csv");
   report(merge_shards(shards, out), vm, out + " (flags are for review, not automatic removal)");
   return 0;
 }

@@ -1,18 +1,25 @@
-// Command-line options shared by the subcommands.
+// The command line over the library's declared options (settings/option_spec.hpp): each
+// declaration becomes a Boost.Program_options option with its help and its default as written,
+// and the parsed text goes back through the declaration's own reader, so the binary and an
+// embedding program get the same checks.
 #pragma once
 #include <boost/program_options.hpp>
 #include <string>
 #include <vector>
 
-#include "envsift/pipeline.hpp"
-#include "envsift/write/run_manifest.hpp"
+#include "envsift/run/run_summary.hpp"
+#include "envsift/settings/option_spec.hpp"
+#include "envsift/settings/settings.hpp"
 
 namespace envsift::cli {
 
 namespace po = boost::program_options;
 
-// Adds --points, --layers, --method, --out, column names, --threads and --block-cache-mb.
-void add_sampling_options(po::options_description& d, SampleOptions& o, bool layers_required = true);
+// Adds the declared options; `required` names the ones the command cannot run without.
+void add_declared(po::options_description& d, const std::vector<OptionSpec>& options,
+                  const std::vector<std::string>& required = {});
+// Adds --quiet, --timings and --help.
+void add_run_switches(po::options_description& d);
 
 // Parses argv; returns false after printing help. Throws UsageError on bad options.
 // `positional`: positional arguments, if the command takes any; `visible`: what --help shows
@@ -22,15 +29,11 @@ bool parse(int argc, char** argv, const std::string& command, const std::string&
            const po::positional_options_description* positional = nullptr,
            const po::options_description* visible = nullptr);
 
-// Applies the parsed values that need checking or conversion (method, delimiter, threads).
-void finish_sampling_options(const po::variables_map& vm, SampleOptions& o);
+// Reads every given option into the settings through its declaration.
+void apply_declared(const po::variables_map& vm, const std::vector<OptionSpec>& options, ScreenSettings& settings);
 
-// The run manifest (command line, options, inputs, layers, times) of this run.
-RunManifest make_manifest(const po::variables_map& vm, const std::string& command, int argc, char** argv,
-                          const SampleOptions& o, unsigned long long seed, const RunSummary& summary);
-// With --manifest FILE.json: writes the run manifest.
-void write_manifest_if_asked(const po::variables_map& vm, const std::string& command, int argc, char** argv,
-                             const SampleOptions& o, unsigned long long seed, const RunSummary& summary);
+// "envsift COMMAND ARGS...", for the run manifest.
+std::string command_line(const std::string& command, int argc, char** argv);
 
 // Warnings, timings (with --timings), reason-code counts and the record accounting, on stderr.
 void report(const RunSummary& summary, const po::variables_map& vm, const std::string& wrote);

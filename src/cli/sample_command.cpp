@@ -1,27 +1,32 @@
-#include <iostream>
-
 #include "commands.hpp"
+#include "envsift/run/run.hpp"
+#include "envsift/settings/run_options.hpp"
+#include "envsift/write/output_registry.hpp"
 #include "options.hpp"
 #include "progress_display.hpp"
 
 namespace envsift::cli {
 
 int sample_command(int argc, char** argv) {
-  SampleOptions o;
+  std::vector<OptionSpec> options = input_options();
+  options.insert(options.end(), sampling_options().begin(), sampling_options().end());
+  for (const auto& o : output_registry())
+    if (o.in_sample) options.push_back(o.option);
   po::options_description d(
       "Sample every raster layer at every record's coordinates. Output: every input record once, in input\n"
       "order, with its original columns, one column per layer and a `status` column (`ok` or reason codes\n"
       "such as outside_layer:NAME, nodata:NAME, coord_missing).\n\nOptions",
       100, 50);
-  add_sampling_options(d, o);
+  add_declared(d, options, {"points", "layers", "out"});
+  add_run_switches(d);
   po::variables_map vm;
   if (!parse(argc, argv, "sample", "--points FILE --layers RASTER... --out FILE.csv [options]", d, vm)) return 0;
-  finish_sampling_options(vm, o);
+  ScreenSettings s;
+  apply_declared(vm, options, s);
+  s.command_line = command_line("sample", argc, argv);
   ProgressDisplay progress;
-  if (!vm["quiet"].as<bool>()) o.progress = &progress;
-  const RunSummary summary = run_sample(o);
-  write_manifest_if_asked(vm, "sample", argc, argv, o, 0, summary);
-  report(summary, vm, o.out);
+  if (!vm["quiet"].as<bool>()) s.progress = &progress;
+  report(run_sample(s), vm, s.outputs.out);
   return 0;
 }
 

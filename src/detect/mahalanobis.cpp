@@ -234,7 +234,7 @@ std::vector<Finding> Mahalanobis::judge_values(const TaxonValues& taxon) const {
     for (std::size_t j : space.layers)
       complete_record = complete_record && std::isfinite(taxon.records(row, layers[j]));
     if (!complete_record) {
-      f.untested_reason = "missing_value:" + name();
+      f.untested_code = "missing_value:" + name();
       continue;
     }
     // Deviation from the centre in standardised layer units; D² = eᵀ A e.
@@ -269,6 +269,46 @@ std::vector<Finding> Mahalanobis::judge_values(const TaxonValues& taxon) const {
     }
   }
   return findings;
+}
+
+}  // namespace envsift
+
+// Registry entry (detect/test_registry.cpp).
+#include "envsift/detect/test_registry.hpp"
+
+namespace envsift {
+
+MahalanobisOptions mahalanobis_options(const ScreenSettings& s) {
+  MahalanobisOptions o;
+  o.quantile = s.tests.chi2_quantile;
+  o.min_records = s.tests.min_records;
+  o.skew_adjusted = s.tests.scale == "skew";
+  return o;
+}
+
+OptionSpec chi2_quantile_option() {
+  return real_option("chi2-quantile", "Q",
+                     "the Mahalanobis tests flag D² above the Q quantile of chi-square (Rousseeuw & van Zomeren 1990 "
+                     "use 0.975)",
+                     [](ScreenSettings& s) -> double& { return s.tests.chi2_quantile; }, inside(0, 1));
+}
+
+TestEntry mahalanobis_entry() {
+  TestEntry e;
+  e.name = Mahalanobis::kName;
+  e.is_default = true;
+  e.help = "all layers together, classical mean/covariance;";
+  e.options.push_back(chi2_quantile_option());
+  e.describe = [](const ScreenSettings& s) {
+    char q[32];
+    std::snprintf(q, sizeof q, "%.3f", s.tests.chi2_quantile);
+    return std::string(Mahalanobis::kName) + ": flags D² above the " + q +
+           " quantile of χ² (classical mean and covariance, all layers together)";
+  };
+  e.make_detector = [](const ScreenSettings& s) -> std::unique_ptr<Detector> {
+    return std::make_unique<Mahalanobis>(mahalanobis_options(s));
+  };
+  return e;
 }
 
 }  // namespace envsift

@@ -40,3 +40,92 @@ Finding check_reported_elevation(const ReportedElevation& reported, const DemRan
 }
 
 }  // namespace envsift
+
+// The check in a run, and its registry entry (detect/test_registry.cpp).
+#include <tuple>
+
+#include "envsift/detect/test_registry.hpp"
+#include "envsift/errors.hpp"
+#include "envsift/read/elevation_text.hpp"
+#include "envsift/reason_codes.hpp"
+#include "envsift/record_table.hpp"
+
+namespace envsift {
+
+DemRange dem_range(const RecordTable& t, std::size_t i, std::size_t dem) {
+  const auto r = static_cast<Eigen::Index>(i), c = static_cast<Eigen::Index>(dem);
+  const double point = t.values(r, c);
+  if (t.has_discs && t.radius_m[i] > 0 && std::isfinite(t.discs.min(r, c)))
+    return {std::min(point, t.discs.min(r, c)), std::max(point, t.discs.max(r, c)), t.radius_m[i]};
+  return {point, point, 0.0};
+}
+
+void ReportedElevationCheck::prepare(RecordTable& t) {
+  const auto dem = t.layer_index(dem_layer_);
+  if (!dem) {
+    std::string names;
+    for (const auto& n : t.layer_names()) names += (names.empty() ? "" : ", ") + n;
+    throw UsageError("--dem " + dem_layer_ + " is not one of the layers (" + names + ")");
+  }
+  const std::size_t n = t.size();
+  dem_.resize(n);
+  for (std::size_t i = 0; i < n; ++i) dem_[i] = dem_range(t, i, *dem);
+  reported_.assign(n, {});
+  std::vector<std::tuple<std::string, std::optional<double> ReportedElevation::*, std::size_t>> wanted;
+  const auto& columns = t.points.columns;
+  for (const auto& [name, member] : {std::pair{columns_.min_elevation, &ReportedElevation::min_m},
+                                     std::pair{columns_.max_elevation, &ReportedElevation::max_m}}) {
+    auto it = std::find(columns.begin(), columns.end(), name);
+    if (!name.empty() && it != columns.end()) wanted.emplace_back(name, member, static_cast<std::size_t>(it - columns.begin()));
+  }
+  if (wanted.empty()) return;
+  std::vector<std::string> fields;
+  for (std::size_t i = 0; i < n; ++i) {
+    t.points.fields.read(i, fields);
+    for (const auto& [name, member, col] : wanted) {
+      const ParsedElevation e = parse_elevation(fields[col]);
+      if (!e.problem.empty()) t.codes.add(i, reason::on_layer(e.problem, name));
+      else if (e.present) reported_[i].*member = e.metres;
+    }
+  }
+}
+
+Finding ReportedElevationCheck::judge(std::size_t i) const {
+  return check_reported_elevation(reported_[i], dem_[i], tolerance_m_, dem_layer_);
+}
+
+TestEntry reported_elevation_entry() {
+  TestEntry e;
+  e.name = ReportedElevationCheck::kName;
+  e.options.push_back(text_option("dem", "LAYER",
+                                  "the layer holding elevation in metres: compare each record's reported elevation "
+                                  "with it (flag elevation_mismatch)",
+                                  [](ScreenSettings& s) -> std::string& { return s.elevation.dem_layer; }));
+  e.options.push_back(real_option("elevation-tolerance", "M",
+                                  "flag only when the reported elevation and the DEM's range within the record's "
+                                  "uncertainty are more than M metres apart (DEM error, and label elevations rounded "
+                                  "to 50-100 m)",
+                                  [](ScreenSettings& s) -> double& { return s.elevation.tolerance_m; }, above(0)));
+  e.options.push_back(text_option("min-elevation-column", "NAME",
+                                  "reported minimum elevation (metres, or with a unit: '1200 m', '3900 ft')",
+                                  [](ScreenSettings& s) -> std::string& { return s.input.reader.columns.min_elevation; }));
+  e.options.push_back(text_option("max-elevation-column", "NAME", "reported maximum elevation",
+                                  [](ScreenSettings& s) -> std::string& { return s.input.reader.columns.max_elevation; }));
+  e.describe = [](const ScreenSettings& s) {
+    char tolerance[32];
+    std::snprintf(tolerance, sizeof tolerance, "%.0f", s.elevation.tolerance_m);
+    return std::string(ReportedElevationCheck::kName) + ": the reported elevation is more than " + tolerance +
+           " m outside the range of " + s.elevation.dem_layer + " within the record's uncertainty disc";
+  };
+  e.make_check = [](const ScreenSettings& s) -> std::unique_ptr<RecordCheck> {
+    return std::make_unique<ReportedElevationCheck>(s.elevation.dem_layer, s.elevation.tolerance_m, s.input.reader.columns);
+  };
+  e.wanted_check = [](const ScreenSettings& s) { return !s.elevation.dem_layer.empty(); };
+  e.validate = [](const ScreenSettings& s) {
+    if (!s.elevation.dem_layer.empty() && !s.input.value_columns.empty())
+      throw UsageError("--dem needs --layers: the elevation check compares with a sampled DEM");
+  };
+  return e;
+}
+
+}  // namespace envsift

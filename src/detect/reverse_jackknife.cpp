@@ -77,7 +77,7 @@ std::pair<double, std::size_t> JackknifeLayer::statistic(double x) const {
 
 namespace {
 
-class JackknifeLayerJudge : public PerLayerTest::Layer {
+class JackknifeLayerJudge : public PerLayerDetector::Layer {
  public:
   JackknifeLayerJudge(JackknifeLayer layer, std::string name) : j_(std::move(layer)), name_(std::move(name)) {}
   LayerVerdict judge(double x) const override {
@@ -114,11 +114,34 @@ class JackknifeLayerJudge : public PerLayerTest::Layer {
 
 }  // namespace
 
-std::unique_ptr<PerLayerTest::Layer> ReverseJackknife::prepare(std::vector<double> reference,
+std::unique_ptr<PerLayerDetector::Layer> ReverseJackknife::prepare(std::vector<double> reference,
                                                                const std::string& layer) const {
   JackknifeLayer j = reverse_jackknife_layer(std::move(reference));
   if (!j.usable) return nullptr;
   return std::make_unique<JackknifeLayerJudge>(std::move(j), layer);
+}
+
+}  // namespace envsift
+
+// Registry entry (detect/test_registry.cpp).
+#include "envsift/detect/test_registry.hpp"
+
+namespace envsift {
+
+TestEntry reverse_jackknife_entry() {
+  TestEntry e;
+  e.name = ReverseJackknife::kName;
+  e.is_default = true;
+  e.help = "one layer at a time, a gap cutting off a tail;";
+  e.describe = [](const ScreenSettings&) {
+    return std::string(ReverseJackknife::kName) +
+           ": flags a value beyond a gap that cuts a tail off the taxon's values on any layer (gap statistic > 0.95 √n + 0.2)";
+  };
+  e.make_detector = [](const ScreenSettings& s) -> std::unique_ptr<Detector> {
+    return std::make_unique<ReverseJackknife>(ReverseJackknifeOptions{s.tests.min_records, s.tests.common_share});
+  };
+  e.cutoffs = CutoffStyle{"jackknife", 1, "the reverse jackknife's cut"};
+  return e;
 }
 
 }  // namespace envsift

@@ -74,7 +74,7 @@ namespace {
 
 // `scale` holds one spread per side of the median: both the MAD-based spread, or with
 // skew adjustment each side's own (skew_scale.hpp, the MAD-based spread where a side collapses).
-class RobustZLayer : public PerLayerTest::Layer {
+class RobustZLayer : public PerLayerDetector::Layer {
  public:
   RobustZLayer(SideScales scale, double cutoff, std::string name)
       : scale_(scale), cutoff_(cutoff), name_(std::move(name)) {}
@@ -97,7 +97,7 @@ class RobustZLayer : public PerLayerTest::Layer {
 
 }  // namespace
 
-std::unique_ptr<PerLayerTest::Layer> RobustZ::prepare(std::vector<double> reference, const std::string& layer) const {
+std::unique_ptr<PerLayerDetector::Layer> RobustZ::prepare(std::vector<double> reference, const std::string& layer) const {
   const RobustSpread s = robust_spread(reference);
   if (!(s.spread > 0)) return nullptr;
   const double floor = resolution(reference);
@@ -105,6 +105,41 @@ std::unique_ptr<PerLayerTest::Layer> RobustZ::prepare(std::vector<double> refere
                                             : SideScales{s.median, s.spread, s.spread};
   scale.below = std::max(scale.below, floor), scale.above = std::max(scale.above, floor);
   return std::make_unique<RobustZLayer>(scale, options_.cutoff, layer);
+}
+
+}  // namespace envsift
+
+// Registry entry (detect/test_registry.cpp).
+#include "envsift/detect/test_registry.hpp"
+#include <cstdio>
+
+namespace envsift {
+
+TestEntry robust_z_entry() {
+  TestEntry e;
+  e.name = RobustZ::kName;
+  e.is_default = true;
+  e.help = "one layer at a time, distance from the taxon's median in robust SDs;";
+  e.options.push_back(real_option("z-cutoff", "Z",
+                                  "robust_z flags |z| > Z. 3 is 'very conservative' in Leys et al. (2013); lower "
+                                  "values flag more good records, and a record is judged on every layer",
+                                  [](ScreenSettings& s) -> double& { return s.tests.z_cutoff; }, above(0)));
+  e.describe = [](const ScreenSettings& s) {
+    char cutoff[32];
+    std::snprintf(cutoff, sizeof cutoff, "%.2f", s.tests.z_cutoff);
+    return std::string(RobustZ::kName) + ": flags a value more than " + cutoff +
+           " robust SD (1.4826 × MAD) from the taxon's median on any layer";
+  };
+  e.make_detector = [](const ScreenSettings& s) -> std::unique_ptr<Detector> {
+    RobustZOptions o;
+    o.cutoff = s.tests.z_cutoff;
+    o.min_records = s.tests.min_records;
+    o.skew_adjusted = s.tests.scale == "skew";
+    o.common_share = s.tests.common_share;
+    return std::make_unique<RobustZ>(o);
+  };
+  e.cutoffs = CutoffStyle{"robust z", 0, "where robust z starts flagging"};
+  return e;
 }
 
 }  // namespace envsift

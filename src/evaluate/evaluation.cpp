@@ -5,12 +5,13 @@
 #include <cstdlib>
 #include <filesystem>
 #include <fstream>
-#include <map>
+#include <algorithm>
 
 #include "envsift/detect/circular_layers.hpp"
 #include "envsift/errors.hpp"
 #include "envsift/evaluate/injected_errors.hpp"
-#include "envsift/read/csv_reader.hpp"
+#include "envsift/run/run.hpp"
+#include "envsift/settings/run_options.hpp"
 #include "envsift/sample/raster_stack.hpp"
 #include "envsift/write/csv_writer.hpp"
 #include "envsift/write/value_format.hpp"
@@ -32,6 +33,50 @@ struct ScratchDirectory {
   }
 };
 
+// The screen's verdicts on the virtual records, judged as a reader of the output would: each test
+// by its statistic and cutoff as written (a withheld flag ranks at its cutoff), the combined
+// verdict by the score as written.
+class VerdictTally : public RecordSink {
+ public:
+  VerdictTally(std::vector<JudgedRecord> truth, std::vector<std::string> tests)
+      : truth_(std::move(truth)), tests_(std::move(tests)), judged_(tests_.size() + 1) {}
+  std::string name() const override { return "evaluation"; }
+  void begin(const RunContext& run) override {
+    const auto names = run.tests->names();
+    for (const auto& t : tests_) column_.push_back(static_cast<std::size_t>(std::find(names.begin(), names.end(), t) - names.begin()));
+  }
+  void record(const RecordOutcome& o) override {
+    const Verdict& v = *o.verdict;
+    const JudgedRecord& base = truth_.at(o.record);
+    for (std::size_t t = 0; t < tests_.size(); ++t) {
+      const TestResult& r = v.tests[column_[t]];
+      JudgedRecord j = base;
+      j.scored = r.tested && !std::isnan(r.statistic);  // as an empty statistic column reads
+      j.flagged = std::find(v.flags.begin(), v.flags.end(), tests_[t]) != v.flags.end();
+      if (j.scored) {
+        const double severity = as_written(r.statistic) / as_written(r.threshold);
+        j.score = j.flagged ? severity : std::min(severity, 1.0);
+      }
+      judged_[t].push_back(j);
+    }
+    JudgedRecord all = base;
+    all.scored = v.score.has_value();
+    all.flagged = !v.flags.empty();
+    all.score = all.scored ? score_as_written(*v.score) : 0;
+    judged_.back().push_back(all);
+  }
+  void finish(const RunSummary&) override {}
+  void commit() override {}
+  const std::vector<JudgedRecord>& judged(std::size_t test) const { return judged_[test]; }
+
+ private:
+  static double as_written(double statistic) { return std::stod(format_statistic(statistic)); }
+  std::vector<JudgedRecord> truth_;
+  std::vector<std::string> tests_;
+  std::vector<std::size_t> column_;
+  std::vector<std::vector<JudgedRecord>> judged_;
+};
+
 std::string ratio_text(double v) {
   char buf[32];
   std::snprintf(buf, sizeof buf, "%.4f", v);
@@ -41,10 +86,11 @@ std::string ratio_text(double v) {
 }  // namespace
 
 Evaluation run_evaluation(const EvaluateOptions& o) {
+  validate(o);
   std::vector<std::string> layer_names;
-  for (const auto& spec : expand_layer_arguments(o.screen.layers)) layer_names.push_back(spec.name);
+  for (const auto& spec : expand_layer_arguments(o.screen.input.layers)) layer_names.push_back(spec.name);
   refuse_circular_layers(layer_names);
-  const StudyArea area = study_area(o.screen.layers, o.study_cells, o.taxa.seed, o.screen.assume_crs);
+  const StudyArea area = study_area(o.screen.input.layers, o.study_cells, o.taxa.seed, o.screen.input.assume_crs);
   const auto taxa = make_virtual_taxa(area, o.taxa);
   std::vector<VirtualRecord> records;
   std::vector<const VirtualTaxon*> taxon_of;
@@ -63,74 +109,61 @@ Evaluation run_evaluation(const EvaluateOptions& o) {
   // The suitability where each record now lies (the layers sampled as the screen will sample them).
   std::vector<double> suitability(records.size());
   {
-    RasterStack stack(expand_layer_arguments(o.screen.layers), std::size_t(256) << 20, o.screen.assume_crs);
+    RasterStack stack(expand_layer_arguments(o.screen.input.layers), std::size_t(256) << 20, o.screen.input.assume_crs);
     std::vector<double> lon, lat;
     for (const auto& r : records) {
       const bool valid = std::fabs(r.latitude) <= 90 && std::fabs(r.longitude) <= 180;
       lon.push_back(valid ? r.longitude : std::nan("")), lat.push_back(valid ? r.latitude : std::nan(""));
     }
-    const Samples s = stack.sample(lon, lat, o.screen.method);
+    const Samples s = stack.sample(lon, lat, sampling_plan(o.screen.sampling).method);
     for (std::size_t i = 0; i < records.size(); ++i)
       suitability[i] = taxon_of[i]->suitability(s.values.row(static_cast<Eigen::Index>(i)).transpose());
   }
   ScratchDirectory scratch;
-  ScreenOptions screen = o.screen;
-  screen.points = scratch.path + "/virtual.csv";
-  screen.out = o.keep_screened.empty() ? scratch.path + "/screened.csv" : o.keep_screened;
-  screen.order = RowOrder::input;
+  ScreenSettings screen = o.screen;
+  screen.input.points = scratch.path + "/virtual.csv";
+  screen.outputs.out = o.keep_screened;  // empty: only the tally below
+  screen.outputs.order = "input";
   {
-    std::ofstream points(screen.points, std::ios::binary);
+    std::ofstream points(screen.input.points, std::ios::binary);
     points << "occurrenceID,scientificName,decimalLongitude,decimalLatitude,virtual_error,virtual_suitability\n";
     for (std::size_t i = 0; i < records.size(); ++i) {
       const VirtualRecord& r = records[i];
       points << r.id << "," << r.taxon << "," << format_value(r.longitude) << "," << format_value(r.latitude) << "," << r.error << ","
              << format_value(suitability[i]) << "\n";
     }
-    if (!points) throw OutputError(screen.points, "cannot write the virtual records; check free space in $TMPDIR");
+    if (!points) throw OutputError(screen.input.points, "cannot write the virtual records; check free space in $TMPDIR");
   }
   Evaluation e;
   e.taxa = taxa.size();
   e.records = records.size();
-  e.screen = run_screen(screen);
-
-  std::ifstream in(screen.out, std::ios::binary);
-  CsvReader reader(in, ',', screen.out);
-  std::vector<std::string> header, row;
-  std::size_t line;
-  reader.next(header, line);
-  std::map<std::string, std::size_t> column;
-  for (std::size_t c = 0; c < header.size(); ++c) column[header[c]] = c;
-  std::vector<std::string> names = screen.tests;
-  const auto n_tests = names.size();
-  std::vector<std::vector<JudgedRecord>> judged(n_tests + 1);
-  for (std::size_t i = 0; reader.next(row, line); ++i) {
-    const VirtualRecord& r = records.at(i);
-    JudgedRecord base;
-    base.error = !r.error.empty();
-    base.unsuitable = base.error && suitability[i] < o.unsuitable_below;
-    if (base.error) ++e.errors, e.errors_off_layers += std::isnan(suitability[i]);
-    const std::string& flags = row[column.at("flags")];
-    const std::string separated = ";" + flags + ";";
-    for (std::size_t t = 0; t < n_tests; ++t) {
-      JudgedRecord j = base;
-      const std::string& stat = row[column.at(names[t] + "_stat")];
-      j.scored = !stat.empty();
-      j.flagged = separated.find(";" + names[t] + ";") != std::string::npos;
-      if (j.scored) {
-        const double severity = std::stod(stat) / std::stod(row[column.at(names[t] + "_cutoff")]);
-        j.score = j.flagged ? severity : std::min(severity, 1.0);  // withheld flags rank at the cutoff
-      }
-      judged[t].push_back(j);
-    }
-    JudgedRecord all = base;
-    all.scored = !row[column.at("score")].empty();
-    all.flagged = !flags.empty();
-    all.score = all.scored ? std::stod(row[column.at("score")]) : 0;
-    judged[n_tests].push_back(all);
+  std::vector<JudgedRecord> truth(records.size());
+  for (std::size_t i = 0; i < records.size(); ++i) {
+    truth[i].error = !records[i].error.empty();
+    truth[i].unsuitable = truth[i].error && suitability[i] < o.unsuitable_below;
+    if (truth[i].error) ++e.errors, e.errors_off_layers += std::isnan(suitability[i]);
   }
+  VerdictTally tally(truth, screen.tests.tests);
+  e.screen = run_screen(screen, {&tally});
+  auto names = screen.tests.tests;
   names.push_back("combined");
-  for (std::size_t t = 0; t <= n_tests; ++t) e.rows.push_back({names[t], measure_detection(judged[t])});
+  for (std::size_t t = 0; t < names.size(); ++t) e.rows.push_back({names[t], measure_detection(tally.judged(t))});
   return e;
+}
+
+void validate(const EvaluateOptions& e) {
+  const VirtualTaxaOptions& t = e.taxa;
+  if (t.min_records < 3 || t.max_records < t.min_records)
+    throw UsageError("--taxon-records must be MIN-MAX with 3 <= MIN <= MAX, e.g. 12-3000, not " +
+                     std::to_string(t.min_records) + "-" + std::to_string(t.max_records));
+  if (!(t.width_low > 0) || !(t.width_high >= t.width_low))
+    throw UsageError("--response-width must be LOW-HIGH with 0 < LOW <= HIGH, e.g. 0.1-0.4");
+  if (t.taxa < 1) throw UsageError("--taxa must be at least 1");
+  if (!(e.error_share > 0 && e.error_share < 0.5)) throw UsageError("--error-share must be above 0 and below 0.5");
+  if (!(t.two_population_share >= 0 && t.two_population_share <= 1))
+    throw UsageError("--two-population-share must be between 0 and 1");
+  if (!(e.unsuitable_below > 0 && e.unsuitable_below < 1)) throw UsageError("--unsuitable-below must be between 0 and 1");
+  if (e.study_cells < 100) throw UsageError("--study-cells must be at least 100");
 }
 
 void write_evaluation(const std::string& path, const Evaluation& e) {

@@ -1,4 +1,5 @@
 #include "envsift/read/point_reader.hpp"
+#include "envsift/stable_hash.hpp"
 
 #include <algorithm>
 #include <cctype>
@@ -127,8 +128,7 @@ class TableBuilder {
 
  private:
   static std::uint64_t id_hash(const std::string& id) {  // FNV-1a, never 0
-    std::uint64_t h = 0xcbf29ce484222325ull;
-    for (unsigned char c : id) h = (h ^ c) * 0x100000001b3ull;
+    const std::uint64_t h = stable_hash(id);
     return h ? h : 1;
   }
   std::uint32_t intern_taxon(std::string name) {

@@ -74,6 +74,7 @@ LayerInfo describe_layer(const LayerSpec& spec, const std::string& assume_crs) {
   info.scale = band->GetScale();
   info.offset = band->GetOffset();
   info.data_type = GDALGetDataTypeName(band->GetRasterDataType());
+  info.unit = band->GetUnitType();
   band->GetBlockSize(&info.block_width, &info.block_height);
   const GDALDataType type = band->GetRasterDataType();
   info.float32_values = type == GDT_Float32 && info.scale == 1 && info.offset == 0;

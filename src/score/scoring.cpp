@@ -2,6 +2,9 @@
 
 #include <algorithm>
 #include <numeric>
+#include <string>
+
+#include "envsift/write/value_format.hpp"
 
 namespace envsift {
 
@@ -10,11 +13,12 @@ Verdict combine(const std::vector<const Finding*>& findings, const std::vector<s
   std::vector<std::size_t> order;
   for (std::size_t t = 0; t < findings.size(); ++t) {
     const Finding& f = *findings[t];
+    v.tests.push_back({f.tested, f.statistic, f.threshold, f.extras});
     if (!f.tested) {
-      v.untested.push_back(f.untested_reason);
+      v.codes.push_back(f.untested_code);
       continue;
     }
-    v.untested.insert(v.untested.end(), f.codes.begin(), f.codes.end());
+    v.codes.insert(v.codes.end(), f.codes.begin(), f.codes.end());
     v.score = std::max(v.score.value_or(0.0), f.severity);
     if (f.flagged) {
       v.flags.push_back(names[t]);
@@ -27,6 +31,8 @@ Verdict combine(const std::vector<const Finding*>& findings, const std::vector<s
     for (const auto& r : findings[t]->reasons) v.reasons.push_back(r);
   return v;
 }
+
+double score_as_written(double score) { return std::stod(format_score(score)); }
 
 std::vector<std::size_t> rank_by_score(const std::vector<std::optional<double>>& scores) {
   std::vector<std::size_t> order;

@@ -2,14 +2,13 @@
 
 #include <cmath>
 #include <cstdio>
-#include <unistd.h>
 
 #include <gdal_priv.h>
 #include <ogrsf_frmts.h>
 
 #include "envsift/errors.hpp"
 #include "envsift/sample/great_circle.hpp"
-#include "envsift/write/csv_writer.hpp"
+#include "envsift/write/atomic_file.hpp"
 #include "gdal_init.hpp"
 
 namespace envsift {
@@ -35,15 +34,14 @@ std::string extension_of(const std::string& path) {
 }  // namespace
 
 struct GisWriter::Impl {
-  std::string path, temp;
+  std::string path;
+  std::unique_ptr<TemporaryPath> temp;
   std::vector<FieldKind> kinds;
   GDALDataset* ds = nullptr;
   OGRLayer* points = nullptr;
   OGRLayer* discs = nullptr;
   std::size_t pending = 0;
   bool transactions = false;  // GeoPackage: yes; GeoJSON: no
-  bool committed = false;
-  int slot = -1;              // in the signal handler's list of partial outputs
 
   void fail(const std::string& what) const { throw OutputError(path, what + " (" + CPLGetLastErrorMsg() + ")"); }
 };
@@ -58,9 +56,9 @@ GisWriter::GisWriter(std::string path, const std::vector<std::string>& header, c
   const bool geojson = ext == ".geojson" || ext == ".json";
   if (!geojson && ext != ".gpkg")
     throw UsageError("--gis needs a file ending in .gpkg (GeoPackage) or .geojson, not '" + m.path + "'");
-  m.temp = m.path + ".partial-" + std::to_string(::getpid()) + ext;
+  m.temp = std::make_unique<TemporaryPath>(m.path, ext);
   GDALDriver* driver = GetGDALDriverManager()->GetDriverByName(geojson ? "GeoJSON" : "GPKG");
-  m.ds = driver ? driver->Create(m.temp.c_str(), 0, 0, 0, GDT_Unknown, nullptr) : nullptr;
+  m.ds = driver ? driver->Create(m.temp->temporary().c_str(), 0, 0, 0, GDT_Unknown, nullptr) : nullptr;
   if (!m.ds) m.fail("cannot create the GIS output");
   OGRSpatialReference wgs84;
   wgs84.SetWellKnownGeogCS("WGS84");
@@ -79,13 +77,10 @@ GisWriter::GisWriter(std::string path, const std::vector<std::string>& header, c
     m.discs->CreateField(&radius);
   }
   m.transactions = m.ds->StartTransaction() == OGRERR_NONE;
-  m.slot = remember_partial_output(m.temp);
 }
 
 GisWriter::~GisWriter() {
   if (impl_->ds) GDALClose(impl_->ds);
-  if (!impl_->committed) std::remove(impl_->temp.c_str());
-  forget_partial_output(impl_->slot);
 }
 
 void GisWriter::add(const std::vector<std::string>& row, double longitude, double latitude, double radius_m) {
@@ -124,16 +119,17 @@ void GisWriter::add(const std::vector<std::string>& row, double longitude, doubl
   }
 }
 
-void GisWriter::commit() {
+void GisWriter::finish() {
   Impl& m = *impl_;
+  if (!m.ds) return;
   if (m.transactions && m.ds->CommitTransaction() != OGRERR_NONE) m.fail("cannot finish the GIS output");
   GDALClose(m.ds);
   m.ds = nullptr;
-  if (std::rename(m.temp.c_str(), m.path.c_str()) != 0) {
-    std::remove(m.temp.c_str());
-    throw OutputError(m.path, "cannot finish the GIS output");
-  }
-  m.committed = true;
+}
+
+void GisWriter::commit() {
+  finish();
+  impl_->temp->commit();
 }
 
 }  // namespace envsift

@@ -9,8 +9,10 @@
 #include <openssl/evp.h>
 
 #include "envsift/errors.hpp"
-#include "envsift/sample/raster_stack.hpp"
-#include "envsift/write/csv_writer.hpp"
+#include <omp.h>
+
+#include "envsift/settings/run_options.hpp"
+#include "envsift/write/output_registry.hpp"
 
 namespace envsift {
 
@@ -57,9 +59,8 @@ std::string manifest_json(const RunManifest& m) {
   j["threads"] = m.threads;
   j["points"] = file_entry(m.points);
   nlohmann::ordered_json layers = nlohmann::ordered_json::array();
-  if (!m.layers.empty()) {
-    RasterStack stack(expand_layer_arguments(m.layers), 1 << 20, m.assume_crs);
-    for (const LayerInfo& l : stack.layers()) {
+  {
+    for (const LayerInfo& l : m.layers) {
       nlohmann::ordered_json layer = file_entry(l.spec.path);
       layer["name"] = l.spec.name;
       layer["band"] = l.spec.band;
@@ -81,10 +82,23 @@ std::string manifest_json(const RunManifest& m) {
   return j.dump(2) + "\n";
 }
 
-void write_manifest(const std::string& path, const RunManifest& m) {
-  CsvWriter out(path);  // the atomic writer, used for one text blob
-  out.write_text(manifest_json(m));
-  out.commit();
+RunManifest make_manifest(const RunContext& run, const RunSummary& summary) {
+  const ScreenSettings& s = run.settings;
+  RunManifest m;
+  m.command_line = s.command_line;
+  std::vector<OptionSpec> options = input_options();
+  options.insert(options.end(), sampling_options().begin(), sampling_options().end());
+  if (run.screened()) options = all_screen_options();
+  else
+    for (const auto& o : output_registry())
+      if (o.in_sample) options.push_back(o.option);
+  for (const auto& o : options) m.options.emplace_back(o.name, o.get(s));
+  m.points = s.input.points;
+  if (!run.table.layers_are_columns) m.layers = run.table.layers;
+  m.seed = run.screened() ? s.tests.seed : 0;
+  m.threads = omp_get_max_threads();
+  m.seconds = summary.seconds;
+  return m;
 }
 
 }  // namespace envsift

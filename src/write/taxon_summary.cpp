@@ -17,7 +17,7 @@ std::vector<std::string> taxon_summary_header(const std::vector<std::string>& te
   return header;
 }
 
-std::vector<std::string> taxon_summary_row(const ScreenedTaxon& t, const std::vector<Verdict>& verdicts,
+std::vector<std::string> taxon_summary_row(const JudgedTaxon& t, const std::vector<Verdict>& verdicts,
                                            const std::vector<std::string>& test_names, const ElevationBand* band) {
   std::size_t scored = 0, flagged = 0;
   std::vector<std::size_t> per_test(test_names.size(), 0);

@@ -22,7 +22,7 @@ Eigen::MatrixXd random_rows(int n, int p, unsigned seed) {
 
 void expect_finite_with_dimension(const std::vector<Finding>& findings, double dims) {
   for (const auto& f : findings) {
-    ASSERT_TRUE(f.tested) << f.untested_reason;
+    ASSERT_TRUE(f.tested) << f.untested_code;
     EXPECT_TRUE(std::isfinite(f.statistic));
     EXPECT_EQ(f.extras[0], dims);
   }
@@ -54,7 +54,7 @@ TEST(MahalanobisSingular, ConstantLayerIsLeftOutAndTooFewRowsIsAReason) {
   const Eigen::MatrixXd few = random_rows(6, 3, 11);
   const auto f = RobustMahalanobis().judge({few, few, names, 1});
   EXPECT_FALSE(f[0].tested);
-  EXPECT_EQ(f[0].untested_reason, "too_few_records:mahalanobis_robust");
+  EXPECT_EQ(f[0].untested_code, "too_few_records:mahalanobis_robust");
 }
 
 // More than half the rows share one value of a layer (a layer of few classes): the MCD scatter is

@@ -87,7 +87,7 @@ TEST(ReverseJackknife, BelowTheMinimumIsNotJudged) {
   const std::vector<std::string> names{"x"};
   const auto f = ReverseJackknife().judge({x, x, names});
   EXPECT_FALSE(f[0].tested);
-  EXPECT_EQ(f[0].untested_reason, "too_few_records:reverse_jackknife");
+  EXPECT_EQ(f[0].untested_code, "too_few_records:reverse_jackknife");
 }
 
 }  // namespace

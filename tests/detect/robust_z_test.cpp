@@ -46,11 +46,11 @@ TEST(RobustZ, MadZeroFallsBackToMeanAbsoluteDeviation) {
 
 TEST(RobustZ, AllEqualOrTooFewIsNotJudged) {
   const auto same = column(std::vector<double>(12, 3.0));
-  EXPECT_EQ(RobustZ().judge({same, same, kLayer})[0].untested_reason, "no_spread:x");
+  EXPECT_EQ(RobustZ().judge({same, same, kLayer})[0].untested_code, "no_spread:x");
   const auto few = column({1, 2, 3});
   const auto f = RobustZ().judge({few, few, kLayer});
   EXPECT_FALSE(f[0].tested);
-  EXPECT_EQ(f[0].untested_reason, "too_few_records:robust_z");
+  EXPECT_EQ(f[0].untested_code, "too_few_records:robust_z");
 }
 
 // Distinct cells: 50 records in one cell would make the MAD 0 and every other record an

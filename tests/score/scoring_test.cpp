@@ -24,18 +24,18 @@ TEST(Scoring, ScoreIsTheLargestSeverityAndFlagsNameTheTestsThatFired) {
   const Finding j = judged(2.0, 4.4, 2.0 / 4.4);
   const Finding m = judged(40.0, 10.0, 2.0, {"D² large"});
   Finding untested;
-  untested.untested_reason = "too_few_records:x";
+  untested.untested_code = "too_few_records:x";
   const Verdict v = combine({&z, &j, &m, &untested}, {"robust_z", "reverse_jackknife", "mahalanobis", "x"});
   ASSERT_TRUE(v.score.has_value());
   EXPECT_DOUBLE_EQ(*v.score, 2.0);
   EXPECT_EQ(v.flags, (std::vector<std::string>{"robust_z", "mahalanobis"}));
   EXPECT_EQ(v.reasons, (std::vector<std::string>{"D² large", "dem far out"}));  // most severe test first
-  EXPECT_EQ(v.untested, (std::vector<std::string>{"too_few_records:x"}));
+  EXPECT_EQ(v.codes, (std::vector<std::string>{"too_few_records:x"}));
 }
 
 TEST(Scoring, NothingJudgedMeansNoScore) {
   Finding a;
-  a.untested_reason = "too_few_records:robust_z";
+  a.untested_code = "too_few_records:robust_z";
   EXPECT_FALSE(combine({&a}, {"robust_z"}).score.has_value());
 }
 

@@ -37,14 +37,14 @@ struct TaxonValues {
 
 // What one test says of one record.
 struct Finding {
-  bool tested = false;               // false: the test could not judge this record (see `untested_reason`)
+  bool tested = false;               // false: the test could not judge this record (see `untested_code`)
   double statistic = std::nan("");   // the test's own statistic (e.g. the largest |robust z|, D²)
   double threshold = std::nan("");   // the value beyond which the record is flagged
   double severity = std::nan("");    // on a common scale across tests: 1 at the threshold
   bool flagged = false;
   std::vector<double> extras;        // values of the test's extra_columns(), NaN when unknown
   std::vector<std::string> reasons;  // plain words for a flagged record: which layer, how far
-  std::string untested_reason;       // a reason code when not tested, e.g. too_few_records:robust_z
+  std::string untested_code;       // a reason code when not tested, e.g. too_few_records:robust_z
   std::vector<std::string> codes;    // reason codes for a tested record (e.g. looks_multimodal:TEST)
 };
 
@@ -59,7 +59,7 @@ class Detector {
 // Findings for a taxon no record of which can be judged.
 inline std::vector<Finding> untested(std::size_t rows, const std::string& reason) {
   std::vector<Finding> f(rows);
-  for (auto& x : f) x.untested_reason = reason;
+  for (auto& x : f) x.untested_code = reason;
   return f;
 }
 

@@ -29,7 +29,8 @@ struct Estimate {
 class Mahalanobis : public Detector {
  public:
   explicit Mahalanobis(MahalanobisOptions options = {}) : options_(options) {}
-  std::string name() const override { return "mahalanobis"; }
+  static constexpr const char* kName = "mahalanobis";
+  std::string name() const override { return kName; }
   std::vector<std::string> extra_columns() const override { return {"dims"}; }
   std::vector<Finding> judge(const TaxonValues& taxon) const final;
 
@@ -54,5 +55,9 @@ struct ReducedSpace {
 // `complete`: reference rows with every layer finite. Returns a space with 0 dimensions when
 // nothing is left.
 ReducedSpace reduce(const Eigen::MatrixXd& complete, const MahalanobisOptions& options);
+
+// The options both Mahalanobis tests take from a run's settings (their registry entries).
+struct ScreenSettings;
+MahalanobisOptions mahalanobis_options(const ScreenSettings& settings);
 
 }  // namespace envsift

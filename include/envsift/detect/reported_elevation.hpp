@@ -3,7 +3,11 @@
 #include <optional>
 #include <string>
 
+#include <vector>
+
 #include "envsift/detect/detector.hpp"
+#include "envsift/detect/record_check.hpp"
+#include "envsift/read/point_reader.hpp"
 
 namespace envsift {
 
@@ -23,5 +27,28 @@ struct DemRange {
 // no value there.
 Finding check_reported_elevation(const ReportedElevation& reported, const DemRange& dem, double tolerance_m,
                                  const std::string& dem_name);
+
+// The DEM around record i: its disc's range (when it has a disc), else its point value.
+struct RecordTable;
+DemRange dem_range(const RecordTable& table, std::size_t record, std::size_t dem_layer);
+
+// The check as a run uses it: reported elevations read from the label columns (an unreadable
+// one gets elevation_unreadable:COLUMN), the DEM range from the sampled layer.
+class ReportedElevationCheck : public RecordCheck {
+ public:
+  static constexpr const char* kName = "elevation_mismatch";
+  ReportedElevationCheck(std::string dem_layer, double tolerance_m, ColumnNames columns)
+      : dem_layer_(std::move(dem_layer)), tolerance_m_(tolerance_m), columns_(std::move(columns)) {}
+  std::string name() const override { return kName; }
+  void prepare(RecordTable& table) override;
+  Finding judge(std::size_t record) const override;
+
+ private:
+  std::string dem_layer_;
+  double tolerance_m_;
+  ColumnNames columns_;
+  std::vector<ReportedElevation> reported_;
+  std::vector<DemRange> dem_;
+};
 
 }  // namespace envsift

@@ -2,7 +2,7 @@
 #pragma once
 #include <cstddef>
 
-#include "envsift/detect/per_layer_test.hpp"
+#include "envsift/detect/per_layer_detector.hpp"
 
 namespace envsift {
 
@@ -11,11 +11,13 @@ struct ReverseJackknifeOptions {
   double common_share = 0.05;    // a value held by this share of the reference is not flagged
 };
 
-class ReverseJackknife : public PerLayerTest {
+class ReverseJackknife : public PerLayerDetector {
  public:
   explicit ReverseJackknife(ReverseJackknifeOptions options = {})
-      : PerLayerTest(options.min_records, options.common_share) {}
-  std::string name() const override { return "reverse_jackknife"; }
+      : PerLayerDetector(options.min_records, options.common_share) {}
+  static constexpr const char* kName = "reverse_jackknife";
+  std::string name() const override { return kName; }
+  bool flags_its_bounds() const override { return true; }
 
  protected:
   std::unique_ptr<Layer> prepare(std::vector<double> reference, const std::string& layer) const override;

@@ -10,7 +10,8 @@ namespace envsift {
 class RobustMahalanobis : public Mahalanobis {
  public:
   RobustMahalanobis(MahalanobisOptions options = {}, McdOptions mcd = {}) : Mahalanobis(options), mcd_(mcd) {}
-  std::string name() const override { return "mahalanobis_robust"; }
+  static constexpr const char* kName = "mahalanobis_robust";
+  std::string name() const override { return kName; }
 
  protected:
   Estimate estimate(const Eigen::MatrixXd& scores, std::uint64_t seed) const override;

@@ -3,7 +3,7 @@
 #include <cstddef>
 #include <vector>
 
-#include "envsift/detect/per_layer_test.hpp"
+#include "envsift/detect/per_layer_detector.hpp"
 
 namespace envsift {
 
@@ -17,11 +17,12 @@ struct RobustZOptions {
   double common_share = 0.05;    // a value held by this share of the reference is not flagged
 };
 
-class RobustZ : public PerLayerTest {
+class RobustZ : public PerLayerDetector {
  public:
   explicit RobustZ(RobustZOptions options = {})
-      : PerLayerTest(options.min_records, options.common_share), options_(options) {}
-  std::string name() const override { return "robust_z"; }
+      : PerLayerDetector(options.min_records, options.common_share), options_(options) {}
+  static constexpr const char* kName = "robust_z";
+  std::string name() const override { return kName; }
 
  protected:
   std::unique_ptr<Layer> prepare(std::vector<double> reference, const std::string& layer) const override;

@@ -1,19 +1,21 @@
 // `envsift evaluate`: screen virtual taxa with injected errors on the user's rasters, with exactly
 // the settings `screen` would use, and measure what each test and the combined verdict find.
 //   virtual taxa (virtual_taxa.hpp) → records → errors (injected_errors.hpp) → points file →
-//   run_screen → the output read back → metrics per test and combined (detection_metrics.hpp)
+//   run_screen, whose verdicts an output of its own tallies → metrics per test and combined
+//   (detection_metrics.hpp)
 #pragma once
 #include <string>
 #include <vector>
 
 #include "envsift/evaluate/detection_metrics.hpp"
 #include "envsift/evaluate/virtual_taxa.hpp"
-#include "envsift/pipeline.hpp"
+#include "envsift/run/run_summary.hpp"
+#include "envsift/settings/settings.hpp"
 
 namespace envsift {
 
 struct EvaluateOptions {
-  ScreenOptions screen;              // layers, tests and their settings (points/out are set here)
+  ScreenSettings screen;             // layers, tests and their settings (points/out are set here)
   VirtualTaxaOptions taxa;
   std::size_t study_cells = 200000;  // candidate cells sampled from the first layer
   double error_share = 0.05;         // of each taxon's records
@@ -32,6 +34,8 @@ struct Evaluation {
   RunSummary screen;  // what the screen said (warnings, counts)
 };
 
+// Throws UsageError for settings out of their bounds (the screen's are checked by run_screen).
+void validate(const EvaluateOptions& options);
 Evaluation run_evaluation(const EvaluateOptions& options);
 
 // The table as CSV (atomically): one row per test and one for the combined verdict.

@@ -40,6 +40,7 @@ struct LayerInfo {
   std::optional<double> nodata;
   double scale = 1, offset = 0;
   std::string data_type;      // GDAL's name, e.g. "Float32"
+  std::string unit;           // as the raster declares it (GDAL unit type); may be empty
   int block_width = 0, block_height = 0;
   bool float32_values = false;  // unscaled Float32: values are printed as 32-bit floats
   int decimals = -1;  // integer cells with scale/offset: values are rounded to this many decimals

@@ -6,6 +6,7 @@
 // and tests (each is "how many times its own cutoff"). Records are ranked by score, highest
 // first; ties keep input order.
 #pragma once
+#include <cmath>
 #include <cstddef>
 #include <optional>
 #include <string>
@@ -15,15 +16,28 @@
 
 namespace envsift {
 
+// What one test found for one record, as written to its columns.
+struct TestResult {
+  bool tested = false;
+  double statistic = std::nan(""), threshold = std::nan("");
+  std::vector<double> extras;  // the test's extra columns
+};
+
+// The typed verdict on one record, as every output receives it.
 struct Verdict {
   std::optional<double> score;      // empty: no test could judge the record
   std::vector<std::string> flags;   // names of the tests that flagged it
   std::vector<std::string> reasons; // plain words, most severe test first
-  std::vector<std::string> untested;  // reason codes of tests that could not judge it, or withheld their flags
+  std::vector<std::string> codes;   // reason codes of tests that could not judge it, or withheld their flags
+  std::vector<TestResult> tests;    // per test, in the run's order
 };
 
 // `findings[t]` is test t's finding for this record; `names[t]` its name.
 Verdict combine(const std::vector<const Finding*>& findings, const std::vector<std::string>& names);
+
+// The score as written to the output (three decimals): records are ranked by it, so that merged
+// shards rank exactly as a single run and a reader of the file sees the order it was ranked in.
+double score_as_written(double score);
 
 // Rank 1 = highest score. Records without a score get rank 0 (written as empty).
 std::vector<std::size_t> rank_by_score(const std::vector<std::optional<double>>& scores);

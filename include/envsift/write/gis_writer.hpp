@@ -22,7 +22,8 @@ class GisWriter {
   // One record: its attributes; its point (NaN: no geometry, the record is still written); its
   // uncertainty disc radius in metres (0: none).
   void add(const std::vector<std::string>& row, double longitude, double latitude, double radius_m);
-  void commit();
+  void finish();  // the file is complete under its temporary name
+  void commit();  // finish() if not done, then rename into place
 
  private:
   struct Impl;

@@ -7,23 +7,29 @@
 #include <utility>
 #include <vector>
 
+#include "envsift/sample/raster_stack.hpp"
+
 namespace envsift {
+
+struct RunContext;
+struct RunSummary;
 
 struct RunManifest {
   std::string command_line;
   std::vector<std::pair<std::string, std::string>> options;  // name → value, as given or defaulted
   std::string points;                                        // the points file
-  std::vector<std::string> layers;                           // layer arguments (paths or NAME=PATH)
-  std::string assume_crs;
+  std::vector<LayerInfo> layers;                             // as read when sampling (none for value columns)
   unsigned long long seed = 0;
   int threads = 1;
   std::vector<std::pair<std::string, double>> seconds;       // time per stage
 };
 
+// The manifest of a run: its settings as the declared options write them, its inputs, layers
+// and timings so far.
+RunManifest make_manifest(const RunContext& run, const RunSummary& summary);
+
 // The manifest as JSON text (also embedded in the HTML report).
 std::string manifest_json(const RunManifest& manifest);
-// Writes the manifest as JSON (atomically, like every output).
-void write_manifest(const std::string& path, const RunManifest& manifest);
 
 // Lower-case hex SHA-256 of a file's bytes (FIPS 180-4, computed by OpenSSL).
 std::string sha256_of_file(const std::string& path);

@@ -5,7 +5,7 @@
 #include <string>
 #include <vector>
 
-#include "envsift/score/screen_taxa.hpp"
+#include "envsift/detect/judge_taxa.hpp"
 #include "envsift/score/scoring.hpp"
 
 namespace envsift {
@@ -20,7 +20,7 @@ struct ElevationBand {
 std::vector<std::string> taxon_summary_header(const std::vector<std::string>& test_names, bool with_band);
 
 // `verdicts[r]`: the verdict on the taxon's r-th record.
-std::vector<std::string> taxon_summary_row(const ScreenedTaxon& taxon, const std::vector<Verdict>& verdicts,
+std::vector<std::string> taxon_summary_row(const JudgedTaxon& taxon, const std::vector<Verdict>& verdicts,
                                            const std::vector<std::string>& test_names, const ElevationBand* band);
 
 }  // namespace envsift

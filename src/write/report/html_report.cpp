@@ -3,9 +3,11 @@
 #include <cmath>
 #include <algorithm>
 #include <cstdio>
+#include <cctype>
+#include <map>
 #include <set>
 
-#include "envsift/write/csv_writer.hpp"
+#include "envsift/write/atomic_file.hpp"
 #include "envsift/write/value_format.hpp"
 #include "envsift/write/report/shaded_relief.hpp"
 #include "envsift/write/report/svg_canvas.hpp"
@@ -60,13 +62,21 @@ std::string spaced(const std::string& list) {
 bool beyond_a_cutoff(const TaxonPicture& t, std::size_t l) {
   for (const auto& r : t.records) {
     if (!r.suspect || !std::isfinite(r.value[l])) continue;
-    const double x = r.value[l];
-    const auto& z = t.layers[l].robust_z;
-    const auto& gap = t.layers[l].jackknife;  // flags its bounds themselves
-    if (z && (x < z->first || x > z->second)) return true;
-    if (gap && (x <= gap->first || x >= gap->second)) return true;
+    for (const auto& c : t.layers[l].cutoffs)
+      if (c.beyond(r.value[l])) return true;
   }
   return false;
+}
+
+// "Blue dashed lines: where robust z starts flagging; ... ", one clause per test drawn.
+std::string cutoff_caption(const TaxonPicture& t) {
+  std::map<int, std::string> clauses;
+  for (const auto& layer : t.layers)
+    for (const auto& c : layer.cutoffs) clauses.emplace(c.slot, std::string(cutoff_style(c.slot).words) + " lines: " + c.words);
+  std::string s;
+  for (const auto& [slot, clause] : clauses) s += (s.empty() ? "" : "; ") + clause;
+  if (!s.empty()) s[0] = static_cast<char>(std::toupper(static_cast<unsigned char>(s[0])));
+  return s.empty() ? s : s + ". ";
 }
 
 std::string value_text(double v) { return std::isfinite(v) ? svg::number(v) : ""; }
@@ -89,7 +99,8 @@ std::string taxon_anchor(std::size_t index) { return "taxon-" + std::to_string(i
 
 HtmlReport::HtmlReport(std::string path, ReliefSource relief, std::uint64_t seed, std::size_t min_rows,
                        std::size_t max_taxa)
-    : path_(std::move(path)), relief_(std::move(relief)), seed_(seed), min_rows_(min_rows), max_taxa_(max_taxa) {}
+    : path_(std::move(path)), out_(std::make_unique<AtomicFile>(path_)), relief_(std::move(relief)), seed_(seed),
+      min_rows_(min_rows), max_taxa_(max_taxa) {}
 
 void HtmlReport::add_taxon(std::size_t index, const TaxonPicture& t, std::size_t judged) {
   std::size_t suspects = 0;
@@ -128,9 +139,8 @@ void HtmlReport::add_taxon(std::size_t index, const TaxonPicture& t, std::size_t
   s += "</div>";
   if (suspects > 0) {
     s += "<p class=\"note\">Triangles: suspects (the worst labelled by ID; a black bar spans a record's values within "
-         "its uncertainty disc). Grey: the " + escape(t.reference_label) + " the taxon's statistics come from. Blue dashed "
-         "lines: where robust z starts flagging; vermillion dotted: the reverse jackknife's cut. Green ellipse: 97.5 % of "
-         "the taxon's robust (FAST-MCD) bivariate normal.</p>";
+         "its uncertainty disc). Grey: the " + escape(t.reference_label) + " the taxon's statistics come from. " +
+         escape(cutoff_caption(t)) + "Green ellipse: 97.5 % of the taxon's robust (FAST-MCD) bivariate normal.</p>";
     s += "<table><tr><th>record</th><th>score</th><th>reasons</th>";
     for (const auto& l : t.layers) s += "<th>" + escape(l.name) + "</th>";
     s += "</tr>";
@@ -161,7 +171,7 @@ void HtmlReport::finish(const ReportOverview& o) {
     std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) { return taxa_[a].worst > taxa_[b].worst; });
     drawn = std::set<std::size_t>(order.begin(), order.begin() + static_cast<std::ptrdiff_t>(max_taxa_));
   }
-  CsvWriter out(path_);  // the atomic writer, for one text document
+  AtomicFile& out = *out_;
   std::string s = kHead;
   s += "<title>" + escape(o.title) + "</title>" + kStyle + "</head><body>";
   s += "<h1>" + escape(o.title) + "</h1>";
@@ -220,18 +230,20 @@ void HtmlReport::finish(const ReportOverview& o) {
          cell(std::to_string(e.records), true) + cell(std::to_string(e.judged), true) +
          cell(std::to_string(e.suspects), true) + "</tr>";
   s += "</table>";
-  out.write_text(s);
+  out.write(s);
   std::vector<std::string> section;
   for (const auto& [index, e] : taxa_) {
     if (!drawn.count(index)) continue;
     sections_.read(e.section, section);
-    out.write_text(section.at(0));
+    out.write(section.at(0));
   }
   s = "<h2 id=\"manifest\">Run manifest</h2>";
   s += o.manifest_json.empty() ? "<p>Not recorded.</p>" : "<pre>" + escape(o.manifest_json) + "</pre>";
   s += "</body></html>\n";
-  out.write_text(s);
-  out.commit();
+  out.write(s);
+  out.finish();
 }
+
+void HtmlReport::commit() { out_->commit(); }
 
 }  // namespace envsift

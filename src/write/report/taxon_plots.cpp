@@ -15,7 +15,6 @@ namespace envsift {
 namespace {
 
 constexpr std::size_t kLabelled = 8;  // suspects labelled by name in a picture; the rest are marked
-const std::string kDashZ = "7 4", kDashJackknife = "2 3";
 
 std::string axis_label(const PlotLayer& l) { return l.unit.empty() ? l.name : l.name + " (" + l.unit + ")"; }
 
@@ -45,6 +44,14 @@ void dots(svg::Plot& plot, const std::vector<std::pair<double, double>>& pixels,
 
 }  // namespace
 
+CutoffLook cutoff_style(int slot) {
+  static const CutoffLook looks[] = {{svg::colour::cutoff[0], "7 4", "blue dashed"},
+                                     {svg::colour::cutoff[1], "2 3", "vermillion dotted"},
+                                     {svg::colour::cutoff[2], "8 3 2 3", "reddish purple dash-dotted"},
+                                     {svg::colour::cutoff[3], "12 4", "black long-dashed"}};
+  return looks[std::clamp(slot, 0, 3)];
+}
+
 std::string distribution_plot(const TaxonPicture& t, std::size_t l) {
   const PlotLayer& layer = t.layers[l];
   std::vector<double> values;
@@ -57,8 +64,7 @@ std::string distribution_plot(const TaxonPicture& t, std::size_t l) {
   for (double v : values) include(v);
   for (const auto& r : t.records)
     if (r.suspect) include(r.low[l]), include(r.high[l]), include(r.value[l]);
-  for (const auto& b : {layer.robust_z, layer.jackknife})
-    if (b) include(b->first), include(b->second);
+  for (const auto& c : layer.cutoffs) include(c.low), include(c.high);
   svg::Plot plot(480, 230, layer.name + ": " + t.taxon);
   if (!std::isfinite(lo)) lo = 0, hi = 1;
   plot.x_range(lo, hi);
@@ -77,13 +83,10 @@ std::string distribution_plot(const TaxonPicture& t, std::size_t l) {
               svg::number(plot.x()(x0 + (b + 1) * width) - px) + "\" height=\"" + svg::number(plot.bottom() - py) + "\"/>";
     }
   plot.raw(bars + "</g>");
-  if (layer.robust_z) {
-    plot.vertical(layer.robust_z->first, svg::colour::robust_z, kDashZ, "robust z cutoff (low)");
-    plot.vertical(layer.robust_z->second, svg::colour::robust_z, kDashZ, "robust z cutoff (high)");
-  }
-  if (layer.jackknife) {
-    plot.vertical(layer.jackknife->first, svg::colour::jackknife, kDashJackknife, "reverse jackknife cutoff (low)");
-    plot.vertical(layer.jackknife->second, svg::colour::jackknife, kDashJackknife, "reverse jackknife cutoff (high)");
+  for (const auto& c : layer.cutoffs) {
+    const CutoffLook look = cutoff_style(c.slot);
+    plot.vertical(c.low, look.colour, look.dash, c.label + " cutoff (low)");
+    plot.vertical(c.high, look.colour, look.dash, c.label + " cutoff (high)");
   }
   std::vector<std::string> missing;
   std::size_t k = 0;
@@ -104,8 +107,8 @@ std::string distribution_plot(const TaxonPicture& t, std::size_t l) {
   unplaced(plot, missing, plot.top() + 66);
   std::vector<std::pair<std::string, std::string>> legend{{svg::legend_box(svg::colour::bars), t.reference_label},
                                                           {svg::legend_suspect(), "suspect"}};
-  if (layer.robust_z) legend.emplace_back(svg::legend_line(svg::colour::robust_z, kDashZ), "robust z");
-  if (layer.jackknife) legend.emplace_back(svg::legend_line(svg::colour::jackknife, kDashJackknife), "jackknife");
+  for (const auto& c : layer.cutoffs)
+    legend.emplace_back(svg::legend_line(cutoff_style(c.slot).colour, cutoff_style(c.slot).dash), c.label);
   plot.legend(legend);
   return plot.finish();
 }

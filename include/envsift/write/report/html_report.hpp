@@ -11,11 +11,13 @@
 #include <cstddef>
 #include <cstdint>
 #include <map>
+#include <memory>
 #include <mutex>
 #include <string>
 #include <vector>
 
 #include "envsift/read/field_store.hpp"
+#include "envsift/write/atomic_file.hpp"
 #include "envsift/write/report/taxon_plots.hpp"
 
 namespace envsift {
@@ -52,8 +54,9 @@ class HtmlReport {
 
   // Thread-safe. `index`: the taxon's position in the index (taxa are listed in this order).
   void add_taxon(std::size_t index, const TaxonPicture& picture, std::size_t judged);
-  // Writes the file (atomically); the anchors of the taxa are "taxon-<index>".
+  // Writes the file under its temporary name; the anchors of the taxa are "taxon-<index>".
   void finish(const ReportOverview& overview);
+  void commit();  // puts it in place
 
  private:
   struct Entry {
@@ -62,6 +65,7 @@ class HtmlReport {
     double worst = 0;  // highest score of its suspects
   };
   std::string path_;
+  std::unique_ptr<AtomicFile> out_;
   ReliefSource relief_;
   std::uint64_t seed_;
   std::size_t min_rows_, max_taxa_;

@@ -10,8 +10,8 @@ namespace envsift::svg {
 
 namespace colour {
 constexpr const char* suspect = "#E69F00";    // orange, with a black outline
-constexpr const char* robust_z = "#0072B2";   // blue, dashed
-constexpr const char* jackknife = "#D55E00";  // vermillion, dotted
+// one-layer tests' cutoffs, one per style slot: blue, vermillion, reddish purple, black
+constexpr const char* cutoff[] = {"#0072B2", "#D55E00", "#CC79A7", "#000000"};
 constexpr const char* ellipse = "#009E73";    // bluish green
 constexpr const char* points = "#4D4D4D";     // dark grey
 constexpr const char* bars = "#BDBDBD";       // light grey

@@ -17,11 +17,28 @@
 
 namespace envsift {
 
-struct PlotLayer {
-  std::string name, unit;                                 // unit may be empty
-  std::optional<std::pair<double, double>> robust_z;      // where robust z starts flagging
-  std::optional<std::pair<double, double>> jackknife;     // where the reverse jackknife does
+// Where a one-layer test starts flagging on a layer, drawn in its style slot (cutoff_style()).
+struct PlotCutoff {
+  std::string label;          // legend, e.g. "robust z"
+  int slot = 0;               // style: colour and dash
+  double low = 0, high = 0;   // values between are not flagged
+  bool flags_bounds = false;  // the bounds themselves are flagged (reverse jackknife)
+  std::string words;          // caption: what the lines mean
+  bool beyond(double x) const { return flags_bounds ? x <= low || x >= high : x < low || x > high; }
 };
+
+struct PlotLayer {
+  std::string name, unit;            // unit may be empty
+  std::vector<PlotCutoff> cutoffs;   // one per one-layer test that could judge the layer
+};
+
+// The colour, dash and caption words of a cutoff style slot (Okabe-Ito colours, distinct dashes).
+struct CutoffLook {
+  const char* colour;
+  const char* dash;
+  const char* words;  // e.g. "blue dashed"
+};
+CutoffLook cutoff_style(int slot);
 
 struct PlotRecord {
   std::string label;          // record ID (or "line N")

@@ -1,4 +1,4 @@
-#include "envsift/score/screen_taxa.hpp"
+#include "envsift/detect/judge_taxa.hpp"
 
 #include <algorithm>
 #include <chrono>
@@ -8,26 +8,18 @@
 #include <unordered_set>
 
 #include "envsift/group/taxon_groups.hpp"
+#include "envsift/stable_hash.hpp"
 
 namespace envsift {
 
-std::uint64_t stable_hash(const std::string& text, std::uint64_t basis) {
-  std::uint64_t h = basis;
-  for (unsigned char c : text) {
-    h ^= c;
-    h *= 0x100000001b3ull;
-  }
-  return h;
-}
-
-std::vector<ScreenedTaxon> screen_taxa(const ScreeningInput& in, const std::vector<std::unique_ptr<Detector>>& detectors,
-                                       bool distinct_cells, std::uint64_t seed, const TaxonSink& sink,
+std::vector<JudgedTaxon> judge_taxa(const JudgingInput& in, const std::vector<std::unique_ptr<Detector>>& detectors,
+                                       bool distinct_cells, std::uint64_t seed, const TaxonFindingsSink& sink,
                                        std::vector<double>* test_seconds, const PopulationOptions& population_options) {
   std::mutex timing;
   if (test_seconds) test_seconds->assign(detectors.size(), 0.0);
   const auto L = in.values.cols();
   const auto groups = group_by_taxon(in.taxon_of, in.taxon_names, in.eligible);
-  std::vector<ScreenedTaxon> result(groups.size());
+  std::vector<JudgedTaxon> result(groups.size());
   std::vector<std::size_t> order(groups.size());
   std::iota(order.begin(), order.end(), 0);
   std::stable_sort(order.begin(), order.end(),
@@ -43,7 +35,7 @@ std::vector<ScreenedTaxon> screen_taxa(const ScreeningInput& in, const std::vect
     if (in.lower) lower.resize(rows, L), upper.resize(rows, L);
     std::vector<Eigen::Index> reference_rows;
     std::unordered_set<std::uint64_t> seen;
-    ScreenedTaxon& screened = result[index];
+    JudgedTaxon& screened = result[index];
     screened.index = index;
     screened.taxon = g.taxon;
     screened.records = g.records;
@@ -59,7 +51,7 @@ std::vector<ScreenedTaxon> screen_taxa(const ScreeningInput& in, const std::vect
     Eigen::MatrixXd reference(static_cast<Eigen::Index>(reference_rows.size()), L);
     for (std::size_t r = 0; r < reference_rows.size(); ++r) reference.row(static_cast<Eigen::Index>(r)) = records.row(reference_rows[r]);
 
-    const std::uint64_t taxon_seed = stable_hash(g.taxon, seed ^ 0xcbf29ce484222325ull);
+    const std::uint64_t taxon_seed = stable_hash(g.taxon, seed ^ kFnvBasis);
     auto judge = [&](const TaxonValues& values) {
       std::vector<std::vector<Finding>> found;
       for (std::size_t t = 0; t < detectors.size(); ++t) {

@@ -19,7 +19,7 @@ struct LayerVerdict {
   std::string reason;  // plain words, filled only when flagged
 };
 
-class PerLayerTest : public Detector {
+class PerLayerDetector : public Detector {
  public:
   std::vector<Finding> judge(const TaxonValues& taxon) const final;
 
@@ -39,12 +39,14 @@ class PerLayerTest : public Detector {
   // The accepted range on one layer from its reference values (as judge() prepares it); nothing
   // when the layer could not be judged (too few values, no spread).
   std::optional<std::pair<double, double>> accepted_range(std::vector<double> reference, const std::string& layer) const;
+  // Whether the bounds of the accepted range are themselves flagged (the reverse jackknife's are).
+  virtual bool flags_its_bounds() const { return false; }
 
  protected:
   // common_share: a value that at least this share of the reference values (and two of them)
   // hold exactly is not an outlier on that layer — a layer of few classes (months, soil types)
   // has a second-commonest class, not outliers; its statistic is capped at the cutoff.
-  PerLayerTest(std::size_t min_records, double common_share) : min_records_(min_records), common_share_(common_share) {}
+  PerLayerDetector(std::size_t min_records, double common_share) : min_records_(min_records), common_share_(common_share) {}
 
   // From the layer's finite reference values (at least min_records of them); nullptr when the
   // values have no spread to judge by.

@@ -1,5 +1,5 @@
-// Steps 3-4 glued: group records by taxon and run every test on each taxon (in parallel,
-// largest taxa first).
+// Steps 3-4 glued: group the records by taxon, split a taxon with two populations, and judge
+// each taxon with every detector (in parallel, largest taxa first).
 #pragma once
 #include <cstdint>
 #include <functional>
@@ -14,7 +14,7 @@
 
 namespace envsift {
 
-struct ScreeningInput {
+struct JudgingInput {
   const Eigen::MatrixXd& values;            // records × layers, NaN = missing
   const std::vector<std::uint64_t>& cells;  // per record: equal keys = same raster cells
   const std::vector<std::uint32_t>& taxon_of;  // per record: index into `taxon_names`
@@ -25,7 +25,7 @@ struct ScreeningInput {
   const Eigen::MatrixXd* upper = nullptr;
 };
 
-struct ScreenedTaxon {
+struct JudgedTaxon {
   std::size_t index = 0;               // position among the taxa, sorted by name
   bool two_populations = false;        // judged as two populations
   std::string taxon;
@@ -36,7 +36,7 @@ struct ScreenedTaxon {
 // Receives each taxon's findings as soon as they are known — `findings[t][r]` is test t's
 // finding for the taxon's r-th record — so that nothing per record and test need be kept for the
 // whole file. Called from several threads at once: it must be thread-safe.
-using TaxonSink = std::function<void(const ScreenedTaxon&, std::vector<std::vector<Finding>>&)>;
+using TaxonFindingsSink = std::function<void(const JudgedTaxon&, std::vector<std::vector<Finding>>&)>;
 
 // distinct_cells: each taxon's statistics are estimated from one row per distinct cell key, so
 // that many records in one cell neither zero the spread nor hide an outlier; every record is
@@ -45,12 +45,9 @@ using TaxonSink = std::function<void(const ScreenedTaxon&, std::vector<std::vect
 // Returns the taxa, sorted by name (records and reference rows filled in).
 // `test_seconds` (optional) receives each test's computing time, summed over threads.
 // populations: a taxon with two separate populations (group/populations.hpp) is judged as two.
-std::vector<ScreenedTaxon> screen_taxa(const ScreeningInput& input, const std::vector<std::unique_ptr<Detector>>& detectors,
-                                       bool distinct_cells, std::uint64_t seed, const TaxonSink& sink,
+std::vector<JudgedTaxon> judge_taxa(const JudgingInput& input, const std::vector<std::unique_ptr<Detector>>& detectors,
+                                       bool distinct_cells, std::uint64_t seed, const TaxonFindingsSink& sink,
                                        std::vector<double>* test_seconds = nullptr,
                                        const PopulationOptions& populations = {false});
-
-// A 64-bit FNV-1a hash: stable across machines, compilers and runs.
-std::uint64_t stable_hash(const std::string& text, std::uint64_t basis = 0xcbf29ce484222325ull);
 
 }  // namespace envsift

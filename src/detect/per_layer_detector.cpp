@@ -1,4 +1,4 @@
-#include "envsift/detect/per_layer_test.hpp"
+#include "envsift/detect/per_layer_detector.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -6,7 +6,7 @@
 
 namespace envsift {
 
-std::optional<std::pair<double, double>> PerLayerTest::accepted_range(std::vector<double> reference,
+std::optional<std::pair<double, double>> PerLayerDetector::accepted_range(std::vector<double> reference,
                                                                      const std::string& layer) const {
   reference.erase(std::remove_if(reference.begin(), reference.end(), [](double v) { return !std::isfinite(v); }),
                   reference.end());
@@ -16,7 +16,7 @@ std::optional<std::pair<double, double>> PerLayerTest::accepted_range(std::vecto
   return prepared->accepted();
 }
 
-std::vector<Finding> PerLayerTest::judge(const TaxonValues& taxon) const {
+std::vector<Finding> PerLayerDetector::judge(const TaxonValues& taxon) const {
   const auto rows = static_cast<std::size_t>(taxon.records.rows());
   std::vector<Finding> findings(rows);
   std::vector<std::vector<std::pair<double, std::string>>> drivers(rows);  // (severity, words) per record
@@ -68,7 +68,7 @@ std::vector<Finding> PerLayerTest::judge(const TaxonValues& taxon) const {
   }
   for (std::size_t i = 0; i < rows; ++i) {
     Finding& f = findings[i];
-    if (!f.tested) f.untested_reason = untested.empty() ? "no_values" : untested;
+    if (!f.tested) f.untested_code = untested.empty() ? "no_values" : untested;
     std::stable_sort(drivers[i].begin(), drivers[i].end(),
                      [](const auto& a, const auto& b) { return a.first > b.first; });  // ties: layer order
     for (auto& d : drivers[i]) f.reasons.push_back(std::move(d.second));

@@ -1,0 +1,26 @@
+// Where the records of a run went: every record read is counted once as scored or as not
+// scorable, with the warnings and the time each stage took.
+#pragma once
+#include <cstddef>
+#include <map>
+#include <string>
+#include <vector>
+
+#include "envsift/stopwatch.hpp"
+
+namespace envsift {
+
+struct RunSummary {
+  bool screened = true;  // false for `sample`: nothing is flagged there
+  std::size_t read = 0;
+  std::size_t scored = 0;
+  std::size_t flagged = 0;
+  std::map<std::string, std::size_t> not_scored;  // by first reason code
+  std::map<std::string, std::size_t> codes;       // every reason code, over all records
+  std::vector<std::string> warnings;              // e.g. a layer no record falls on
+  StageSeconds seconds;                           // time per stage (and per test, CPU time)
+  std::string line() const;                       // one line for stderr
+  std::string codes_line() const;                 // one line: every code and its count
+};
+
+}  // namespace envsift

@@ -1,0 +1,79 @@
+// Every setting of a run, as plain structs: what the command line fills in and what a program
+// embedding envsift sets directly. `validate` (settings/validate.hpp) checks them against the
+// declared options (bounds, choices), with the command line's messages.
+#pragma once
+#include <cstddef>
+#include <string>
+#include <vector>
+
+#include "envsift/progress.hpp"
+#include "envsift/read/point_reader.hpp"
+
+namespace envsift {
+
+// The tests a screen runs unless told otherwise (the registry's defaults, detect/test_registry.hpp).
+std::vector<std::string> default_test_names();
+
+struct InputSettings {
+  std::string points;                      // CSV/TSV or an OGR vector source
+  ReaderOptions reader;                    // column names, delimiter, vector layer
+  std::vector<std::string> layers;         // raster paths or NAME=PATH
+  std::vector<std::string> value_columns;  // screen these input columns instead of sampling layers
+  bool single_taxon = false;               // one group for the whole file
+  std::string assume_crs;                  // CRS for layers that have none (else they are refused)
+};
+
+struct SamplingSettings {
+  std::string method = "nearest";          // nearest | bilinear
+  bool discs = true;                       // sample uncertainty discs
+  double default_radius_m = 0;             // disc for records without an uncertainty; 0 = none
+  double max_radius_m = 25000;             // larger discs are cut to this
+  std::size_t block_cache_mb = 256;        // decoded raster blocks (at most a quarter of the limit)
+  std::size_t memory_limit_mb = 4096;      // bounds the cache and the sampling chunks
+  std::vector<std::string> gdal_config;    // KEY=VALUE
+  std::size_t threads = 0;                 // 0: all cores; results do not depend on it
+};
+
+// Settings shared by several tests exist once here; a test's own are beside them, named after it.
+struct TestSettings {
+  std::vector<std::string> tests = default_test_names();
+  std::size_t min_records = 10;       // per layer (one-layer tests) or complete rows (Mahalanobis)
+  double common_share = 0.05;         // a value this share of the reference holds is not flagged
+  std::string scale = "mad";          // mad | skew
+  bool all_records = false;           // estimate from every record, not one per distinct cell
+  unsigned long long seed = 1;        // randomised tests
+  std::string populations = "split";  // split | one
+  double max_flagged_share = 0.15;    // population guard
+  double z_cutoff = 3.0;              // robust_z
+  double chi2_quantile = 0.975;       // mahalanobis, mahalanobis_robust
+};
+
+// The reported elevation against a DEM layer.
+struct ElevationSettings {
+  std::string dem_layer;    // empty: no check
+  double tolerance_m = 100;
+};
+
+struct OutputSettings {
+  std::string out;                // the record table (CSV)
+  std::string summary;            // per-taxon summary CSV
+  std::string gis;                // GeoPackage or GeoJSON
+  std::string report;             // HTML report
+  std::string manifest;           // run manifest (JSON)
+  std::size_t report_taxa = 100;  // taxon sections drawn in the report at most
+  std::string order = "input";    // input | rank
+  // Taxon shards: screen only the taxa whose stable hash modulo `shard_count` is `shard_index`.
+  std::size_t shard_index = 0, shard_count = 1;
+};
+
+struct ScreenSettings {
+  InputSettings input;
+  SamplingSettings sampling;
+  TestSettings tests;
+  ElevationSettings elevation;
+  OutputSettings outputs;
+  std::string command_line;     // how the run was invoked, for the manifest
+  Progress* progress = nullptr;  // optional
+};
+
+}  // namespace envsift

@@ -1,0 +1,50 @@
+// Every output is written under a temporary name beside its target and renamed over it only when
+// the whole run has finished writing, so a failed or interrupted run never leaves a file that
+// looks complete. This is the one place that does it: `TemporaryPath` for writers that create the
+// file themselves (GDAL), `AtomicFile` for envsift's own text.
+#pragma once
+#include <cstdio>
+#include <string>
+
+namespace envsift {
+
+class TemporaryPath {
+ public:
+  // `suffix`: kept at the end of the temporary name (GDAL picks drivers by extension).
+  explicit TemporaryPath(std::string target, const std::string& suffix = "");
+  ~TemporaryPath();  // removes the temporary file unless committed
+  TemporaryPath(const TemporaryPath&) = delete;
+  TemporaryPath& operator=(const TemporaryPath&) = delete;
+
+  const std::string& target() const { return target_; }
+  const std::string& temporary() const { return temporary_; }
+  void commit();  // renames the temporary file over the target; throws OutputError
+
+ private:
+  std::string target_, temporary_;
+  int slot_ = -1;  // in the signal handler's list of partial outputs
+  bool committed_ = false;
+};
+
+class AtomicFile {
+ public:
+  explicit AtomicFile(std::string target);
+  ~AtomicFile();
+  AtomicFile(const AtomicFile&) = delete;
+  AtomicFile& operator=(const AtomicFile&) = delete;
+
+  void write(const std::string& text);  // throws OutputError when the disk is full
+  void finish();  // flushes and closes; the file is complete but not yet in place
+  void commit();  // finish() if not done, then rename into place
+  const std::string& target() const { return path_.target(); }
+
+ private:
+  TemporaryPath path_;
+  std::FILE* file_ = nullptr;
+};
+
+// On SIGINT, SIGTERM or SIGHUP, removes every output still being written (its temporary file),
+// then lets the signal end the process as it would have. Call once, early in main().
+void remove_partial_outputs_on_signal();
+
+}  // namespace envsift

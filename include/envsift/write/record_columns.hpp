@@ -1,0 +1,17 @@
+// The record table as the CSV and GIS outputs write it: each record's original fields, each
+// layer's value (with its uncertainty disc's min/mean/max), `status`, and for a screen `rank`,
+// `score`, `flags`, `reasons` and every test's statistic, cutoff and extra columns.
+#pragma once
+#include <string>
+#include <vector>
+
+#include "envsift/write/record_sink.hpp"
+
+namespace envsift {
+
+// The columns envsift appends after the layers' (status, and for a screen its verdict's).
+std::vector<std::string> added_columns(const ActiveTests* tests);
+std::vector<std::string> record_header(const RecordTable& table, const ActiveTests* tests);
+std::vector<std::string> record_row(const RecordTable& table, const RecordOutcome& outcome);
+
+}  // namespace envsift

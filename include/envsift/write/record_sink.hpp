@@ -1,0 +1,49 @@
+// The one shape every output has (CSV, GIS layers, per-taxon summary, HTML report, run manifest,
+// and the evaluation's in-memory tally): told the run's schema first, then each judged taxon
+// while judging goes on, then every record in output order with its typed verdict and rank,
+// then the run's summary. finish() writes everything under a temporary name; commit() puts it
+// in place — the run commits its outputs only after all of them have finished.
+#pragma once
+#include <cstddef>
+#include <memory>
+#include <string>
+#include <vector>
+
+#include "envsift/detect/judge_taxa.hpp"
+#include "envsift/detect/test_registry.hpp"
+#include "envsift/record_table.hpp"
+#include "envsift/run/run_summary.hpp"
+#include "envsift/score/scoring.hpp"
+#include "envsift/settings/settings.hpp"
+
+namespace envsift {
+
+struct RunContext {
+  const ScreenSettings& settings;
+  const RecordTable& table;
+  const ActiveTests* tests;         // null for `sample`
+  std::vector<std::string> header;  // the record table's columns as written
+  bool screened() const { return tests != nullptr; }
+};
+
+struct RecordOutcome {
+  std::size_t record = 0;                           // index in the input
+  const std::vector<std::string>* fields = nullptr;  // its original fields
+  const std::vector<std::string>* codes = nullptr;   // its reason codes (empty: ok)
+  std::size_t rank = 0;                             // 1 = most suspicious; 0 = not ranked
+  const Verdict* verdict = nullptr;                 // null for `sample`
+};
+
+class RecordSink {
+ public:
+  virtual ~RecordSink() = default;
+  virtual std::string name() const = 0;  // for timings and messages
+  virtual void begin(const RunContext& run) = 0;
+  // Thread-safe; once per judged taxon, `verdicts[r]` for its r-th record.
+  virtual void taxon(const JudgedTaxon&, const std::vector<Verdict>&) {}
+  virtual void record(const RecordOutcome& outcome) = 0;  // in output order, one thread
+  virtual void finish(const RunSummary& summary) = 0;
+  virtual void commit() = 0;
+};
+
+}  // namespace envsift

@@ -1,0 +1,154 @@
+#include "envsift/detect/test_registry.hpp"
+
+#include <algorithm>
+
+#include "envsift/errors.hpp"
+
+namespace envsift {
+
+// Each entry is defined in its test's own file.
+TestEntry robust_z_entry();
+TestEntry reverse_jackknife_entry();
+TestEntry mahalanobis_entry();
+TestEntry robust_mahalanobis_entry();
+TestEntry reported_elevation_entry();
+
+// The registry: one line per test, in the order their columns are written.
+const std::vector<TestEntry>& test_registry() {
+  static const std::vector<TestEntry> entries{
+      robust_z_entry(),
+      reverse_jackknife_entry(),
+      mahalanobis_entry(),
+      robust_mahalanobis_entry(),
+      reported_elevation_entry(),
+  };
+  return entries;
+}
+
+const TestEntry* find_test(const std::string& name) {
+  for (const auto& e : test_registry())
+    if (e.name == name) return &e;
+  return nullptr;
+}
+
+std::vector<std::string> default_test_names() {
+  std::vector<std::string> names;
+  for (const auto& e : test_registry())
+    if (e.is_default) names.push_back(e.name);
+  return names;
+}
+
+namespace {
+
+std::string taxon_test_names() {
+  std::string names;
+  for (const auto& e : test_registry())
+    if (e.make_detector) names += (names.empty() ? "" : ", ") + e.name;
+  return names;
+}
+
+OptionSpec tests_option() {
+  std::string help = "tests to run, comma-separated.";
+  for (const auto& e : test_registry())
+    if (e.make_detector) help += " " + e.name + ": " + e.help;
+  help += " The defaults are what the evaluation supports (README, envsift evaluate).";
+  OptionSpec o{"tests", "LIST", help};
+  o.set = [](ScreenSettings& s, const std::string& text) { s.tests.tests = split_list(text); };
+  o.get = [](const ScreenSettings& s) {
+    std::string joined;
+    for (const auto& t : s.tests.tests) joined += (joined.empty() ? "" : ",") + t;
+    return joined;
+  };
+  o.check = [](const ScreenSettings& s) {
+    if (s.tests.tests.empty()) return "chose no test; choose from " + taxon_test_names();
+    for (const auto& t : s.tests.tests) {
+      const TestEntry* e = find_test(t);
+      if (!e || !e->make_detector) return "names an unknown test '" + t + "'; choose from " + taxon_test_names();
+    }
+    return std::string();
+  };
+  return o;
+}
+
+}  // namespace
+
+const std::vector<OptionSpec>& test_options() {
+  static const std::vector<OptionSpec> options = [] {
+    std::vector<OptionSpec> v{tests_option()};
+    v.push_back(choice_option(
+        "scale",
+        "how robust_z and the Mahalanobis tests measure distance on a layer. mad: one spread, 1.4826 × MAD, for both "
+        "sides of the taxon's median; skew: each side its own spread, from the adjusted boxplot's fence on that side "
+        "(Hubert & Vandervieren 2008), so a long tail (rainfall, slope, distances) is not flagged. mad is the default "
+        "because it measured better with envsift evaluate (README); try both on your rasters",
+        [](ScreenSettings& s) -> std::string& { return s.tests.scale; }, {"mad", "skew"}));
+    v.push_back(real_option("common-share", "S",
+                            "the one-layer tests never flag a value that at least this share of the taxon's values hold "
+                            "exactly (a layer of few classes has common classes, not outliers); 0 turns this off",
+                            [](ScreenSettings& s) -> double& { return s.tests.common_share; }, between(0, 1)));
+    v.push_back(count_option("min-records", "N",
+                             "a taxon needs N values (distinct cells) on a layer for the one-layer tests, and N complete "
+                             "rows for the Mahalanobis tests, which also use at most one dimension per 3 rows; smaller "
+                             "taxa get too_few_records:TEST",
+                             [](ScreenSettings& s) -> std::size_t& { return s.tests.min_records; }, at_least(3)));
+    v.push_back(switch_option("all-records",
+                              "estimate each taxon's statistics from every record, not from one record per distinct "
+                              "cell (the default, so that fifty records in one cell neither zero the spread nor hide an "
+                              "outlier)",
+                              [](ScreenSettings& s) -> bool& { return s.tests.all_records; }));
+    v.push_back(seed_option("seed", "N", "seed of the randomised tests; the same seed gives the same output",
+                            [](ScreenSettings& s) -> unsigned long long& { return s.tests.seed; }));
+    v.push_back(choice_option(
+        "populations",
+        "split: a taxon whose records form two separate groups in the layers' space (k-means with a density valley "
+        "between the groups; each at least 20 % of the taxon) is judged as two populations, each on its own; one: "
+        "every taxon is judged as one",
+        [](ScreenSettings& s) -> std::string& { return s.tests.populations; }, {"split", "one"}));
+    v.push_back(real_option(
+        "max-flagged-share", "S",
+        "when one test flags more than this share of a taxon's judged records (and at least 5), the taxon probably has "
+        "several populations, not that many errors: that test's flags are withheld for the taxon, its records get "
+        "looks_multimodal:TEST and a warning names the taxon. 1 turns this off",
+        [](ScreenSettings& s) -> double& { return s.tests.max_flagged_share; }, {0.0, 1.0, true, false}));
+    for (const auto& e : test_registry()) v.insert(v.end(), e.options.begin(), e.options.end());
+    return v;
+  }();
+  return options;
+}
+
+std::vector<std::string> ActiveTests::names() const {
+  std::vector<std::string> n;
+  for (const auto* e : entries) n.push_back(e->name);
+  return n;
+}
+
+std::vector<std::vector<std::string>> ActiveTests::extra_columns() const {
+  std::vector<std::vector<std::string>> extras;
+  for (const auto& d : detectors) extras.push_back(d->extra_columns());
+  extras.resize(entries.size());
+  return extras;
+}
+
+ActiveTests activate_tests(const ScreenSettings& s) {
+  validate_tests(s);
+  ActiveTests active;
+  for (const auto& e : test_registry())
+    if (e.make_detector && std::find(s.tests.tests.begin(), s.tests.tests.end(), e.name) != s.tests.tests.end()) {
+      active.detectors.push_back(e.make_detector(s));
+      active.entries.push_back(&e);
+    }
+  for (const auto& e : test_registry())
+    if (e.make_check && e.wanted_check(s)) {
+      active.checks.push_back(e.make_check(s));
+      active.entries.push_back(&e);
+    }
+  return active;
+}
+
+void validate_tests(const ScreenSettings& s) {
+  check_options(test_options(), s);
+  for (const auto& e : test_registry())
+    if (e.validate) e.validate(s);
+}
+
+}  // namespace envsift

@@ -1,0 +1,100 @@
+#include <algorithm>
+#include <cstdio>
+#include <mutex>
+
+#include "envsift/detect/judge_taxa.hpp"
+#include "envsift/score/population_guard.hpp"
+#include "steps.hpp"
+
+namespace envsift::run {
+namespace {
+
+std::string withheld_words(const std::string& taxon, const std::string& test, double share) {
+  char words[320];
+  std::snprintf(words, sizeof words,
+                "taxon '%s': %s flagged %.0f%% of its records, so it may have several populations; "
+                "those flags are withheld (looks_multimodal:%s) - review the taxon as a whole",
+                taxon.c_str(), test.c_str(), 100 * share, test.c_str());
+  return words;
+}
+
+}  // namespace
+
+Judgement judge_records(RecordTable& t, const ActiveTests& tests, const Membership& m, const ScreenSettings& s,
+                        const std::vector<RecordSink*>& outputs) {
+  const std::size_t n = t.size();
+  const auto names = tests.names();
+  const auto extras = tests.extra_columns();
+  for (const auto& check : tests.checks) check->prepare(t);
+  Judgement j;
+  j.verdicts = std::make_unique<VerdictStore>(n);
+  j.scores.resize(n);
+
+  // A record's verdict: the taxon tests' findings (if any), then every record check's.
+  auto judge_record = [&](std::size_t i, std::vector<const Finding*> findings) {
+    std::vector<Finding> checked(tests.checks.size());
+    for (std::size_t c = 0; c < tests.checks.size(); ++c) {
+      if (m.mine[i]) checked[c] = tests.checks[c]->judge(i);
+      findings.push_back(&checked[c]);
+    }
+    Verdict v = combine(findings, names);
+    if (const auto note = t.notes.find(i); note != t.notes.end())
+      v.reasons.insert(v.reasons.end(), note->second.begin(), note->second.end());
+    v.codes.erase(std::remove(v.codes.begin(), v.codes.end(), std::string()), v.codes.end());
+    for (std::size_t k = 0; k < v.tests.size(); ++k) v.tests[k].extras.resize(extras[k].size(), std::nan(""));
+    if (v.score) j.scores[i] = score_as_written(*v.score);
+    j.verdicts->put(i, v);
+    return v;
+  };
+
+  PopulationGuard guard;
+  guard.max_share = s.tests.max_flagged_share;
+  std::mutex lock;
+  std::vector<std::pair<std::size_t, std::string>> withheld;  // (taxon index, words)
+  std::size_t eligible_taxa = 0;
+  {
+    std::vector<bool> seen(m.taxon_names.size());
+    for (std::size_t i = 0; i < n; ++i)
+      if (m.eligible[i] && !seen[m.taxon_of[i]]) seen[m.taxon_of[i]] = true, ++eligible_taxa;
+  }
+  if (s.progress) s.progress->stage("screening", eligible_taxa, "taxa");
+  PopulationOptions populations;
+  populations.enabled = s.tests.populations == "split";
+  populations.min_rows = s.tests.min_records;
+  std::vector<double> test_seconds;
+  const auto layer_names = t.layer_names();
+  judge_taxa(
+      {t.values, t.cells, m.taxon_of, m.taxon_names, m.eligible, layer_names, t.has_discs ? &t.discs.min : nullptr,
+       t.has_discs ? &t.discs.max : nullptr},
+      tests.detectors, !s.tests.all_records, s.tests.seed,
+      [&](const JudgedTaxon& taxon, std::vector<std::vector<Finding>>& findings) {
+        for (std::size_t d = 0; d < tests.detectors.size(); ++d) {
+          const double share = withhold_population_flags(findings[d], names[d], guard);
+          if (share < 0) continue;
+          std::lock_guard<std::mutex> hold(lock);
+          withheld.emplace_back(taxon.index, withheld_words(taxon.taxon, names[d], share));
+        }
+        std::vector<Verdict> verdicts;
+        for (std::size_t r = 0; r < taxon.records.size(); ++r) {
+          std::vector<const Finding*> per_test;
+          for (const auto& f : findings) per_test.push_back(&f[r]);
+          verdicts.push_back(judge_record(taxon.records[r], per_test));
+        }
+        for (RecordSink* out : outputs) out->taxon(taxon, verdicts);
+        if (s.progress) s.progress->advance(1);
+      },
+      &test_seconds, populations);
+  for (std::size_t d = 0; d < tests.detectors.size(); ++d)
+    j.test_seconds.emplace_back("test " + names[d] + " (CPU)", test_seconds[d]);
+  // Records outside every taxon: only the record checks can judge them.
+  const std::vector<Finding> none(tests.detectors.size());
+  std::vector<const Finding*> no_findings;
+  for (const auto& f : none) no_findings.push_back(&f);
+  for (std::size_t i = 0; i < n; ++i)
+    if (!j.verdicts->has(i)) judge_record(i, no_findings);
+  std::sort(withheld.begin(), withheld.end());  // by taxon, whatever the threads
+  for (auto& w : withheld) j.warnings.push_back(std::move(w.second));
+  return j;
+}
+
+}  // namespace envsift::run

@@ -1,0 +1,98 @@
+#include <algorithm>
+#include <fstream>
+#include <memory>
+#include <optional>
+#include <sstream>
+
+#include "envsift/errors.hpp"
+#include "envsift/read/csv_reader.hpp"
+#include "envsift/reason_codes.hpp"
+#include "envsift/run/run.hpp"
+#include "envsift/score/scoring.hpp"
+#include "envsift/write/csv_writer.hpp"
+
+namespace envsift {
+
+RunSummary merge_shards(const std::vector<std::string>& paths, const std::string& out_path) {
+  if (paths.empty()) throw UsageError("give the shard outputs: envsift merge SHARD_OUTPUT... --out FILE.csv");
+  struct Shard {
+    std::ifstream in;
+    std::unique_ptr<CsvReader> reader;
+  };
+  std::vector<Shard> shards(paths.size());
+  std::vector<std::string> header;
+  auto open_all = [&]() {
+    for (std::size_t s = 0; s < paths.size(); ++s) {
+      shards[s].in = std::ifstream(paths[s], std::ios::binary);
+      if (!shards[s].in) throw InputError(paths[s], "cannot open the shard output", "check the path");
+      shards[s].reader = std::make_unique<CsvReader>(shards[s].in, ',', paths[s]);
+      std::vector<std::string> h;
+      std::size_t line;
+      if (!shards[s].reader->next(h, line)) throw InputError(paths[s], 1, "the file is empty", "give the outputs of envsift screen --shard");
+      if (s == 0) header = h;
+      else if (h != header)
+        throw InputError(paths[s], 1, "its columns differ from " + paths[0] + "'s", "merge the shards of one run only");
+    }
+  };
+  auto column = [&](const std::string& name) {
+    auto it = std::find(header.begin(), header.end(), name);
+    if (it == header.end())
+      throw InputError(paths[0], 1, "no '" + name + "' column: not an envsift screen output", "merge screen outputs");
+    return static_cast<std::size_t>(it - header.begin());
+  };
+  // Each row comes from the one shard that owns it; the others mark it other_shard.
+  auto next_rows = [&](std::vector<std::string>& picked, std::size_t row_number, std::size_t status) {
+    std::vector<std::string> fields;
+    std::size_t line = 0, owners = 0, ended = 0;
+    for (std::size_t s = 0; s < shards.size(); ++s) {
+      if (!shards[s].reader->next(fields, line)) {
+        ++ended;
+        continue;
+      }
+      if (fields.size() != header.size())
+        throw InputError(paths[s], line, "row has " + std::to_string(fields.size()) + " fields, the header " +
+                                             std::to_string(header.size()), "merge unmodified shard outputs");
+      if (fields[status] != reason::other_shard) {
+        ++owners;
+        picked = fields;
+      }
+    }
+    if (ended == shards.size()) return false;
+    if (ended || owners != 1)
+      throw InputError(paths[0], row_number + 1,
+                       ended ? "the shard outputs have different numbers of rows"
+                             : std::to_string(owners) + " shards claim this row",
+                       "merge all shards 0..N-1 of one run, each once");
+    return true;
+  };
+
+  open_all();
+  const std::size_t status = column("status"), rank = column("rank"), score = column("score"), flags = column("flags");
+  // Pass 1: every row's score, to rank them as one run would.
+  std::vector<std::optional<double>> scores;
+  std::vector<std::string> row;
+  while (next_rows(row, scores.size() + 1, status))
+    scores.push_back(row[score].empty() ? std::nullopt : std::optional<double>(std::stod(row[score])));
+  const auto ranks = rank_by_score(scores);
+  // Pass 2: the rows again, with their rank.
+  open_all();
+  RunSummary summary;
+  CsvWriter out(out_path);
+  out.row(header);
+  for (std::size_t i = 0; next_rows(row, i + 1, status); ++i) {
+    row[rank] = ranks[i] ? std::to_string(ranks[i]) : "";
+    ++summary.read;
+    std::vector<std::string> codes;
+    std::stringstream status_text(row[status]);
+    for (std::string code; std::getline(status_text, code, ';');)
+      if (code != reason::ok) codes.push_back(code), ++summary.codes[code];
+    if (scores[i]) ++summary.scored;
+    else ++summary.not_scored[codes.empty() ? reason::no_values : codes.front()];
+    if (!row[flags].empty()) ++summary.flagged;
+    out.row(row);
+  }
+  out.commit();
+  return summary;
+}
+
+}  // namespace envsift

@@ -1,0 +1,39 @@
+#include "envsift/detect/circular_layers.hpp"
+#include "envsift/reason_codes.hpp"
+#include "envsift/read/value_columns.hpp"
+#include "envsift/run/run.hpp"
+#include "envsift/sample/sample_records.hpp"
+#include "envsift/stable_hash.hpp"
+#include "envsift/write/record_columns.hpp"
+#include "steps.hpp"
+
+namespace envsift {
+
+
+std::size_t shard_of(const std::string& taxon, std::size_t shard_count) {
+  return static_cast<std::size_t>(stable_hash(taxon) % shard_count);
+}
+
+namespace run {
+
+const std::string kSingleTaxon = "*";
+
+bool owned_by_this_shard(const ScreenSettings& s, const PointTable& points, std::size_t i) {
+  const auto& o = s.outputs;
+  return o.shard_count <= 1 || shard_of(s.input.single_taxon ? kSingleTaxon : points.taxon(i), o.shard_count) == o.shard_index;
+}
+
+RecordTable read_and_sample(const ScreenSettings& s, const ActiveTests* tests) {
+  const auto added = added_columns(tests);
+  if (!s.input.value_columns.empty()) {
+    refuse_circular_layers(s.input.value_columns);
+    return read_value_columns(s, added);
+  }
+  std::vector<std::string> layer_names;
+  for (const auto& spec : expand_layer_arguments(s.input.layers)) layer_names.push_back(spec.name);
+  refuse_circular_layers(layer_names);
+  return sample_records(s, added, [&s](const PointTable& points, std::size_t i) { return owned_by_this_shard(s, points, i); });
+}
+
+}  // namespace run
+}  // namespace envsift

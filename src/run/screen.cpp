@@ -1,0 +1,65 @@
+#include "envsift/run/run.hpp"
+
+#include "envsift/errors.hpp"
+#include "envsift/settings/run_options.hpp"
+#include "envsift/write/output_registry.hpp"
+#include "envsift/write/record_columns.hpp"
+#include "steps.hpp"
+
+namespace envsift {
+namespace {
+
+std::vector<RecordSink*> pointers(const std::vector<std::unique_ptr<RecordSink>>& owned,
+                                  const std::vector<RecordSink*>& extra = {}) {
+  std::vector<RecordSink*> all;
+  for (const auto& o : owned) all.push_back(o.get());
+  all.insert(all.end(), extra.begin(), extra.end());
+  return all;
+}
+
+}  // namespace
+
+RunSummary run_sample(const ScreenSettings& s) {
+  validate_for_sample(s);
+  apply_process_settings(s.sampling);
+  const auto outputs = open_outputs(s, true);
+  const Stopwatch started;
+  RunSummary summary;
+  summary.screened = false;
+  const RecordTable t = run::read_and_sample(s, nullptr);
+  summary.seconds = t.seconds;
+  summary.warnings = t.warnings;
+  const RunContext run{s, t, nullptr, record_header(t, nullptr)};
+  for (RecordSink* out : pointers(outputs)) out->begin(run);
+  run::write_outputs(run, nullptr, pointers(outputs), summary);
+  summary.seconds.emplace_back("total", started.seconds());
+  return summary;
+}
+
+RunSummary run_screen(const ScreenSettings& s, const std::vector<RecordSink*>& extra_outputs) {
+  validate(s);
+  apply_process_settings(s.sampling);
+  const ActiveTests tests = activate_tests(s);
+  const auto owned = open_outputs(s, false);
+  const auto outputs = pointers(owned, extra_outputs);
+  if (outputs.empty()) throw UsageError("--out is required: give the CSV file to write");
+  Stopwatch clock;
+  RunSummary summary;
+
+  RecordTable t = run::read_and_sample(s, &tests);  // 1-2. read points, sample the layers
+  summary.seconds = t.seconds;
+  clock.lap(summary.seconds, "sampling, total");
+  const run::Membership membership = run::group_records(t, s);  // 3. group by taxon
+  const RunContext run{s, t, &tests, record_header(t, &tests)};
+  for (RecordSink* out : outputs) out->begin(run);
+  const run::Judgement judgement = run::judge_records(t, tests, membership, s, outputs);  // 4-5. tests, scores
+  clock.lap(summary.seconds, "screen");
+  summary.seconds.insert(summary.seconds.end(), judgement.test_seconds.begin(), judgement.test_seconds.end());
+
+  summary.warnings = t.warnings;
+  summary.warnings.insert(summary.warnings.end(), judgement.warnings.begin(), judgement.warnings.end());
+  run::write_outputs(run, &judgement, outputs, summary);  // 6. rank, write
+  return summary;
+}
+
+}  // namespace envsift

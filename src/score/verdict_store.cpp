@@ -1,0 +1,77 @@
+#include "envsift/score/verdict_store.hpp"
+
+#include <cstring>
+#include <string>
+
+namespace envsift {
+namespace {
+
+void put_number(std::string& out, double v) {
+  char bytes[sizeof v];
+  std::memcpy(bytes, &v, sizeof v);
+  out.append(bytes, sizeof v);
+}
+
+double take_number(const std::string& in, std::size_t& at) {
+  double v;
+  std::memcpy(&v, in.data() + at, sizeof v);
+  at += sizeof v;
+  return v;
+}
+
+void put_list(std::vector<std::string>& fields, const std::vector<std::string>& list) {
+  fields.push_back(std::to_string(list.size()));
+  fields.insert(fields.end(), list.begin(), list.end());
+}
+
+void take_list(const std::vector<std::string>& fields, std::size_t& at, std::vector<std::string>& list) {
+  const std::size_t n = std::stoul(fields[at++]);
+  list.assign(fields.begin() + static_cast<std::ptrdiff_t>(at), fields.begin() + static_cast<std::ptrdiff_t>(at + n));
+  at += n;
+}
+
+}  // namespace
+
+void VerdictStore::put(std::size_t record, const Verdict& v) {
+  // fields: score (empty or 8 bytes), flags, reasons, codes (each a count, then the items), and
+  // one field of bits per test
+  std::vector<std::string> fields{std::string()};
+  if (v.score) put_number(fields[0], *v.score);
+  put_list(fields, v.flags);
+  put_list(fields, v.reasons);
+  put_list(fields, v.codes);
+  for (const TestResult& t : v.tests) {
+    std::string bits(1, t.tested ? '1' : '0');
+    put_number(bits, t.statistic);
+    put_number(bits, t.threshold);
+    for (double e : t.extras) put_number(bits, e);
+    fields.push_back(std::move(bits));
+  }
+  std::lock_guard<std::mutex> guard(lock_);
+  store_.append(fields);
+  slot_[record] = store_.size() - 1;
+}
+
+void VerdictStore::get(std::size_t record, Verdict& v) const {
+  store_.read(slot_[record], fields_);
+  std::size_t at = 0;
+  v.score.reset();
+  if (!fields_[0].empty()) v.score = take_number(fields_[0], at);
+  std::size_t field = 1;
+  take_list(fields_, field, v.flags);
+  take_list(fields_, field, v.reasons);
+  take_list(fields_, field, v.codes);
+  v.tests.clear();
+  for (; field < fields_.size(); ++field) {
+    const std::string& bits = fields_[field];
+    TestResult t;
+    t.tested = bits[0] == '1';
+    at = 1;
+    t.statistic = take_number(bits, at);
+    t.threshold = take_number(bits, at);
+    while (at < bits.size()) t.extras.push_back(take_number(bits, at));
+    v.tests.push_back(std::move(t));
+  }
+}
+
+}  // namespace envsift

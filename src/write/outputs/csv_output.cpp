@@ -1,0 +1,32 @@
+// The record table as CSV (--out): every input record once, its original fields untouched.
+#include "envsift/write/csv_writer.hpp"
+#include "envsift/write/output_registry.hpp"
+#include "envsift/write/record_columns.hpp"
+
+namespace envsift {
+namespace {
+
+class CsvOutput : public RecordSink {
+ public:
+  explicit CsvOutput(const std::string& path) : out_(path) {}
+  std::string name() const override { return "csv"; }
+  void begin(const RunContext& run) override {
+    table_ = &run.table;
+    out_.row(run.header);
+  }
+  void record(const RecordOutcome& o) override { out_.row(record_row(*table_, o)); }
+  void finish(const RunSummary&) override { out_.finish(); }
+  void commit() override { out_.commit(); }
+
+ private:
+  CsvWriter out_;
+  const RecordTable* table_ = nullptr;
+};
+
+}  // namespace
+
+std::unique_ptr<RecordSink> make_csv_output(const std::string& path, const ScreenSettings&) {
+  return std::make_unique<CsvOutput>(path);
+}
+
+}  // namespace envsift

@@ -1,0 +1,59 @@
+// One row per taxon (--summary): records, judged, flagged per test, and with --dem the taxon's
+// robust elevation band (write/taxon_summary.hpp).
+#include <map>
+#include <mutex>
+
+#include "envsift/detect/reported_elevation.hpp"
+#include "envsift/write/csv_writer.hpp"
+#include "envsift/write/output_registry.hpp"
+#include "envsift/write/taxon_summary.hpp"
+
+namespace envsift {
+namespace {
+
+class SummaryOutput : public RecordSink {
+ public:
+  explicit SummaryOutput(const std::string& path) : out_(path) {}
+  std::string name() const override { return "summary"; }
+  void begin(const RunContext& run) override {
+    names_ = run.tests ? run.tests->names() : std::vector<std::string>{};
+    const auto& dem_layer = run.settings.elevation.dem_layer;
+    const auto dem = dem_layer.empty() ? std::nullopt : run.table.layer_index(dem_layer);
+    if (dem) {
+      for (std::size_t i = 0; i < run.table.size(); ++i) {
+        const DemRange r = dem_range(run.table, i, *dem);
+        low_.push_back(r.low), high_.push_back(r.high);
+        point_.push_back(run.table.values(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(*dem)));
+      }
+      band_ = ElevationBand{&low_, &high_, &point_, run.settings.tests.z_cutoff};
+    }
+    out_.row(taxon_summary_header(names_, band_.has_value()));
+  }
+  void taxon(const JudgedTaxon& taxon, const std::vector<Verdict>& verdicts) override {
+    auto row = taxon_summary_row(taxon, verdicts, names_, band_ ? &*band_ : nullptr);
+    std::lock_guard<std::mutex> guard(lock_);
+    rows_[taxon.index] = std::move(row);
+  }
+  void record(const RecordOutcome&) override {}
+  void finish(const RunSummary&) override {
+    for (const auto& [index, row] : rows_) out_.row(row);  // taxa in name order
+    out_.finish();
+  }
+  void commit() override { out_.commit(); }
+
+ private:
+  CsvWriter out_;
+  std::vector<std::string> names_;
+  std::vector<double> low_, high_, point_;
+  std::optional<ElevationBand> band_;
+  std::mutex lock_;
+  std::map<std::size_t, std::vector<std::string>> rows_;
+};
+
+}  // namespace
+
+std::unique_ptr<RecordSink> make_summary_output(const std::string& path, const ScreenSettings&) {
+  return std::make_unique<SummaryOutput>(path);
+}
+
+}  // namespace envsift

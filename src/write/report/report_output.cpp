@@ -1,0 +1,177 @@
+// The HTML report as an output (--report): each judged taxon's picture (its values, reference
+// rows, verdicts and the one-layer tests' cutoffs) as the taxon is judged, the top suspects as
+// the records are written, then the run overview (write/report/html_report.hpp).
+#include <algorithm>
+#include <cmath>
+#include <map>
+#include <mutex>
+
+#include "envsift/detect/per_layer_detector.hpp"
+#include "envsift/write/output_registry.hpp"
+#include "envsift/write/report/html_report.hpp"
+#include "envsift/write/run_manifest.hpp"
+#include "envsift/write/value_format.hpp"
+
+namespace envsift {
+namespace {
+
+constexpr std::size_t kTopSuspects = 100;
+
+ReliefSource relief_of(const RunContext& run) {
+  const auto dem = run.settings.elevation.dem_layer;
+  if (dem.empty() || run.table.layers_are_columns) return {};
+  if (const auto l = run.table.layer_index(dem)) return {run.table.layers[*l].spec.path, run.table.layers[*l].spec.band};
+  return {};
+}
+
+std::string joined(const std::vector<std::string>& parts, const char* separator) {
+  std::string s;
+  for (const auto& p : parts) s += (s.empty() ? "" : separator) + p;
+  return s;
+}
+
+class ReportOutput : public RecordSink {
+ public:
+  explicit ReportOutput(std::string path) : path_(std::move(path)) {}
+  std::string name() const override { return "report"; }
+
+  void begin(const RunContext& run) override {
+    run_ = &run;
+    const auto& s = run.settings;
+    report_ = std::make_unique<HtmlReport>(path_, relief_of(run), s.tests.seed, s.tests.min_records, s.outputs.report_taxa);
+    const auto& columns = run.table.points.columns;
+    if (const auto it = std::find(columns.begin(), columns.end(), s.input.reader.columns.id); it != columns.end())
+      id_column_ = static_cast<std::size_t>(it - columns.begin());
+  }
+
+  void taxon(const JudgedTaxon& taxon, const std::vector<Verdict>& verdicts) override {
+    report_->add_taxon(taxon.index, picture(taxon, verdicts), judged(verdicts));
+    std::lock_guard<std::mutex> guard(lock_);
+    taxon_index_[taxon.taxon] = taxon.index;
+  }
+
+  void record(const RecordOutcome& o) override {
+    if (o.rank == 0 || o.rank > kTopSuspects || o.verdict->flags.empty()) return;
+    const Verdict& v = *o.verdict;
+    ReportSuspect s{o.rank, label(o.record, o.fields), taxon_name(o.record), format_score(*v.score), joined(v.flags, ";"),
+                    joined(v.reasons, "; ")};
+    if (const auto it = taxon_index_.find(s.taxon); it != taxon_index_.end()) s.taxon_index = it->second;
+    top_.push_back(std::move(s));
+  }
+
+  void finish(const RunSummary& summary) override {
+    const auto& s = run_->settings;
+    ReportOverview v;
+    v.title = "envsift screening report: " + s.input.points;
+    v.inputs.emplace_back("points", s.input.points);
+    if (!run_->table.layers_are_columns)
+      for (const auto& l : run_->table.layers)
+        v.inputs.emplace_back("layer " + l.spec.name, l.spec.path + (l.spec.band > 1 ? " (band " + std::to_string(l.spec.band) + ")" : ""));
+    else
+      for (const auto& c : s.input.value_columns) v.inputs.emplace_back("value column", c);
+    v.inputs.emplace_back("output", s.outputs.out);
+    v.inputs.emplace_back("statistics from", s.tests.all_records ? "every record of each taxon"
+                                                                  : "one row per distinct raster cell of each taxon");
+    v.inputs.emplace_back("minimum records per test", std::to_string(s.tests.min_records));
+    for (const auto* entry : run_->tests->entries) v.tests.push_back(entry->describe(s));
+    v.read = summary.read;
+    v.scored = summary.scored;
+    v.flagged = summary.flagged;
+    v.not_scored = summary.not_scored;
+    v.codes = summary.codes;
+    v.warnings = summary.warnings;
+    std::sort(top_.begin(), top_.end(), [](const ReportSuspect& a, const ReportSuspect& b) { return a.rank < b.rank; });
+    v.top = top_;
+    v.manifest_json = manifest_json(make_manifest(*run_, summary));
+    report_->finish(v);
+  }
+  void commit() override { report_->commit(); }
+
+ private:
+  static std::size_t judged(const std::vector<Verdict>& verdicts) {
+    return static_cast<std::size_t>(std::count_if(verdicts.begin(), verdicts.end(), [](const Verdict& v) { return v.score.has_value(); }));
+  }
+  std::string taxon_name(std::size_t i) const {
+    return run_->settings.input.single_taxon ? "*" : run_->table.points.taxon(i);
+  }
+  // Its ID, or "line N".
+  std::string label(std::size_t i, const std::vector<std::string>* fields = nullptr) const {
+    if (id_column_) {
+      std::string id;
+      if (fields) id = fields->at(*id_column_);
+      else {
+        std::lock_guard<std::mutex> guard(fields_lock_);  // FieldStore reads are not thread-safe
+        id = run_->table.points.fields.read(i).at(*id_column_);
+      }
+      if (!id.empty()) return id;
+    }
+    return "line " + std::to_string(run_->table.points.records[i].line);
+  }
+  TaxonPicture picture(const JudgedTaxon& taxon, const std::vector<Verdict>& verdicts) const;
+
+  std::string path_;
+  const RunContext* run_ = nullptr;
+  std::unique_ptr<HtmlReport> report_;
+  std::optional<std::size_t> id_column_;
+  mutable std::mutex fields_lock_;
+  std::mutex lock_;
+  std::map<std::string, std::size_t> taxon_index_;
+  std::vector<ReportSuspect> top_;
+};
+
+TaxonPicture ReportOutput::picture(const JudgedTaxon& taxon, const std::vector<Verdict>& verdicts) const {
+  const RecordTable& t = run_->table;
+  const std::size_t layers = t.layers.size();
+  TaxonPicture p;
+  p.taxon = taxon.taxon;
+  p.reference_label = run_->settings.tests.all_records ? "records" : "distinct cells";
+  p.two_populations = taxon.two_populations;
+  p.reference.resize(static_cast<Eigen::Index>(taxon.reference.size()), static_cast<Eigen::Index>(layers));
+  for (std::size_t r = 0; r < taxon.reference.size(); ++r)
+    p.reference.row(static_cast<Eigen::Index>(r)) = t.values.row(static_cast<Eigen::Index>(taxon.reference[r]));
+  for (std::size_t l = 0; l < layers; ++l) {
+    PlotLayer layer{t.layers[l].spec.name, t.layers[l].unit, {}};
+    std::vector<double> column(p.reference.col(static_cast<Eigen::Index>(l)).data(),
+                               p.reference.col(static_cast<Eigen::Index>(l)).data() + p.reference.rows());
+    const auto& entries = run_->tests->entries;
+    for (std::size_t d = 0; d < run_->tests->detectors.size(); ++d) {
+      const auto* test = dynamic_cast<const PerLayerDetector*>(run_->tests->detectors[d].get());
+      if (!test || !entries[d]->cutoffs) continue;
+      if (const auto range = test->accepted_range(column, layer.name))
+        layer.cutoffs.push_back({entries[d]->cutoffs->label, entries[d]->cutoffs->slot, range->first, range->second,
+                                 test->flags_its_bounds(), entries[d]->cutoffs->words});
+    }
+    p.layers.push_back(std::move(layer));
+  }
+  for (std::size_t k = 0; k < taxon.records.size(); ++k) {
+    const std::size_t i = taxon.records[k];
+    const Verdict& v = verdicts[k];
+    PlotRecord r;
+    r.suspect = !v.flags.empty();
+    r.label = r.suspect ? label(i) : std::string();
+    r.longitude = t.points.records[i].longitude;
+    r.latitude = t.points.records[i].latitude;
+    r.score = v.score.value_or(0);
+    r.reasons = joined(v.reasons, "; ");
+    for (std::size_t l = 0; l < layers; ++l) {
+      const auto [low, high] = t.range(i, l);
+      r.value.push_back(t.values(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(l)));
+      r.low.push_back(low);
+      r.high.push_back(high);
+    }
+    p.records.push_back(std::move(r));
+  }
+  // suspects first, worst first, so that the labelled ones are the worst
+  std::stable_sort(p.records.begin(), p.records.end(), [](const PlotRecord& a, const PlotRecord& b) {
+    return a.suspect != b.suspect ? a.suspect : a.suspect && a.score > b.score;
+  });
+  return p;
+}
+
+}  // namespace
+
+std::unique_ptr<RecordSink> make_report_output(const std::string& path, const ScreenSettings&) {
+  return std::make_unique<ReportOutput>(path);
+}
+
+}  // namespace envsift
