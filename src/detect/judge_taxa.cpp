@@ -1,7 +1,6 @@
 #include "envsift/detect/judge_taxa.hpp"
 
 #include <algorithm>
-#include <chrono>
 #include <exception>
 #include <mutex>
 #include <numeric>
@@ -9,6 +8,7 @@
 
 #include "envsift/group/taxon_groups.hpp"
 #include "envsift/stable_hash.hpp"
+#include "envsift/stopwatch.hpp"
 
 namespace envsift {
 
@@ -55,10 +55,10 @@ std::vector<JudgedTaxon> judge_taxa(const JudgingInput& in, const std::vector<st
     auto judge = [&](const TaxonValues& values) {
       std::vector<std::vector<Finding>> found;
       for (std::size_t t = 0; t < detectors.size(); ++t) {
-        const auto start = std::chrono::steady_clock::now();
+        const Stopwatch clock;
         found.push_back(detectors[t]->judge(values));
         if (test_seconds) {
-          const double s = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+          const double s = clock.seconds();
           std::lock_guard<std::mutex> lock(timing);
           (*test_seconds)[t] += s;
         }

@@ -25,6 +25,7 @@
 // month from the median is never many robust SDs.
 #include "envsift/detect/robust_z.hpp"
 #include "envsift/detect/skew_scale.hpp"
+#include "envsift/median.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -35,15 +36,6 @@ namespace {
 
 constexpr double kMadToSd = 1.4826;
 constexpr double kMeanAdToSd = 1.253314;
-
-double median_in_place(std::vector<double>& v) {
-  const std::size_t n = v.size(), mid = n / 2;
-  std::nth_element(v.begin(), v.begin() + static_cast<std::ptrdiff_t>(mid), v.end());
-  const double upper = v[mid];
-  if (n % 2) return upper;
-  const double lower = *std::max_element(v.begin(), v.begin() + static_cast<std::ptrdiff_t>(mid));
-  return (lower + upper) / 2;
-}
 
 std::string describe(const std::string& layer, double value, double z, double median) {
   char buf[256];

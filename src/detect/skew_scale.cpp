@@ -17,6 +17,7 @@
 // does, the lower middle of the decreasing order, and for n ≤ 100 averages MC(x) and −MC(−x)
 // (which is then the exact median of the kernel values).
 #include "envsift/detect/skew_scale.hpp"
+#include "envsift/median.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -25,11 +26,6 @@
 
 namespace envsift {
 namespace {
-
-double median_of_sorted(const std::vector<double>& x) {
-  const std::size_t n = x.size();
-  return n % 2 ? x[n / 2] : (x[n / 2 - 1] + x[n / 2]) / 2;
-}
 
 // The kernel matrix of x (sorted decreasing): rows = values ≥ m, columns = values ≤ m.
 struct Kernel {

@@ -60,7 +60,7 @@ OptionSpec tests_option() {
     return joined;
   };
   o.check = [](const ScreenSettings& s) {
-    if (s.tests.tests.empty()) return "chose no test; choose from " + taxon_test_names();
+    if (s.tests.tests.empty()) return "names no test; choose from " + taxon_test_names();
     for (const auto& t : s.tests.tests) {
       const TestEntry* e = find_test(t);
       if (!e || !e->make_detector) return "names an unknown test '" + t + "'; choose from " + taxon_test_names();

@@ -12,22 +12,12 @@
 //   3. A record belongs to the population whose projected mean is nearer in units of that
 //      population's SD along the line; a record missing a layer of the split, to the larger one.
 #include "envsift/group/populations.hpp"
+#include "envsift/median.hpp"
 
 #include <algorithm>
 #include <cmath>
 
 namespace envsift {
-namespace {
-
-double median_of(std::vector<double> v) {
-  const std::size_t n = v.size(), mid = n / 2;
-  std::nth_element(v.begin(), v.begin() + static_cast<std::ptrdiff_t>(mid), v.end());
-  const double upper = v[mid];
-  if (n % 2) return upper;
-  return (*std::max_element(v.begin(), v.begin() + static_cast<std::ptrdiff_t>(mid)) + upper) / 2;
-}
-
-}  // namespace
 
 std::uint8_t Populations::population_of(const Eigen::RowVectorXd& values) const {
   if (!split) return 0;
@@ -51,9 +41,9 @@ Populations find_populations(const Eigen::MatrixXd& reference, const PopulationO
     for (Eigen::Index r = 0; r < reference.rows(); ++r)
       if (std::isfinite(reference(r, l))) v.push_back(reference(r, l));
     if (v.size() < 2 * o.min_rows) continue;
-    const double m = median_of(v);
+    const double m = median_in_place(v);
     for (double& x : v) x = std::fabs(x - m);
-    const double mad = 1.4826 * median_of(v);
+    const double mad = 1.4826 * median_in_place(v);
     if (!(mad > 0)) continue;
     s.layers.push_back(l), centres.push_back(m), scales.push_back(mad);
   }

@@ -24,7 +24,7 @@ struct OptionSpec {
   // right kind ("--z-cutoff takes a number, not 'x'").
   std::function<void(ScreenSettings&, const std::string&)> set = nullptr;
   // The value as written ("0.05", "nearest", "" when unset), for --help and the run manifest.
-  std::function<std::string(const ScreenSettings&)> get;
+  std::function<std::string(const ScreenSettings&)> get = nullptr;
   // The complaint when the value is out of its bounds or choices ("must be above 0"), else empty.
   std::function<std::string(const ScreenSettings&)> check = nullptr;
 };

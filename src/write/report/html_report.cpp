@@ -97,16 +97,24 @@ std::string picture(const std::string& document, const std::string& alt) {
 
 std::string taxon_anchor(std::size_t index) { return "taxon-" + std::to_string(index); }
 
-HtmlReport::HtmlReport(std::string path, ReliefSource relief, std::uint64_t seed, std::size_t min_rows,
-                       std::size_t max_taxa)
+HtmlReport::HtmlReport(std::string path, ReliefSource relief, std::uint64_t seed, std::size_t min_rows)
     : path_(std::move(path)), out_(std::make_unique<AtomicFile>(path_)), relief_(std::move(relief)), seed_(seed),
-      min_rows_(min_rows), max_taxa_(max_taxa) {}
+      min_rows_(min_rows) {}
 
-void HtmlReport::add_taxon(std::size_t index, const TaxonPicture& t, std::size_t judged) {
+void HtmlReport::list_taxon(std::size_t index, const TaxonListing& listing) {
+  std::lock_guard<std::mutex> guard(lock_);
+  taxa_[index].listing = listing;
+}
+
+void HtmlReport::add_section(std::size_t index, const std::string& section) {
+  std::lock_guard<std::mutex> guard(lock_);
+  sections_.append({section});
+  taxa_[index].section = sections_.size() - 1;
+}
+
+std::string HtmlReport::section(std::size_t index, const TaxonPicture& t, std::size_t judged) const {
   std::size_t suspects = 0;
-  double worst = 0;
-  for (const auto& r : t.records)
-    if (r.suspect) ++suspects, worst = std::max(worst, r.score);
+  for (const auto& r : t.records) suspects += r.suspect;
   std::string s = "<section class=\"taxon\" id=\"" + taxon_anchor(index) + "\"><h2><i>" + escape(t.taxon) + "</i></h2>";
   s += "<p>" + std::to_string(t.records.size()) + " records, " + std::to_string(judged) + " judged, <span class=\"flagged\">" +
        std::to_string(suspects) + " suspect</span>; statistics from " + std::to_string(t.reference.rows()) + " " +
@@ -157,20 +165,13 @@ void HtmlReport::add_taxon(std::size_t index, const TaxonPicture& t, std::size_t
            " suspects are listed; the output CSV has them all (--order rank lists them worst first).</p>";
   }
   s += "</section>\n";
-  std::lock_guard<std::mutex> guard(lock_);
-  sections_.append({s});
-  taxa_[index] = {t.taxon, t.records.size(), judged, suspects, sections_.size() - 1, worst};
+  return s;
 }
 
 void HtmlReport::finish(const ReportOverview& o) {
-  // which taxa get a section: all, or the max_taxa_ whose worst suspect scores highest
-  std::vector<std::size_t> order;
-  for (const auto& [index, e] : taxa_) order.push_back(index);
-  std::set<std::size_t> drawn(order.begin(), order.end());
-  if (order.size() > max_taxa_) {
-    std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) { return taxa_[a].worst > taxa_[b].worst; });
-    drawn = std::set<std::size_t>(order.begin(), order.begin() + static_cast<std::ptrdiff_t>(max_taxa_));
-  }
+  std::set<std::size_t> drawn;
+  for (const auto& [index, e] : taxa_)
+    if (e.section) drawn.insert(index);
   AtomicFile& out = *out_;
   std::string s = kHead;
   s += "<title>" + escape(o.title) + "</title>" + kStyle + "</head><body>";
@@ -225,16 +226,16 @@ void HtmlReport::finish(const ReportOverview& o) {
          "scores highest (--report-taxa); the others are listed without a link, their records are in the output CSV.</p>";
   s += "<table><tr><th>taxon</th><th>records</th><th>judged</th><th>suspects</th></tr>";
   for (const auto& [index, e] : taxa_)
-    s += "<tr><td>" + (drawn.count(index) ? "<a href=\"#" + taxon_anchor(index) + "\"><i>" + escape(e.name) + "</i></a>"
-                                         : "<i>" + escape(e.name) + "</i>") + "</td>" +
-         cell(std::to_string(e.records), true) + cell(std::to_string(e.judged), true) +
-         cell(std::to_string(e.suspects), true) + "</tr>";
+    s += "<tr><td>" + (drawn.count(index) ? "<a href=\"#" + taxon_anchor(index) + "\"><i>" + escape(e.listing.name) + "</i></a>"
+                                         : "<i>" + escape(e.listing.name) + "</i>") + "</td>" +
+         cell(std::to_string(e.listing.records), true) + cell(std::to_string(e.listing.judged), true) +
+         cell(std::to_string(e.listing.suspects), true) + "</tr>";
   s += "</table>";
   out.write(s);
   std::vector<std::string> section;
   for (const auto& [index, e] : taxa_) {
-    if (!drawn.count(index)) continue;
-    sections_.read(e.section, section);
+    if (!e.section) continue;
+    sections_.read(*e.section, section);
     out.write(section.at(0));
   }
   s = "<h2 id=\"manifest\">Run manifest</h2>";

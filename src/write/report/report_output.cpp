@@ -1,8 +1,12 @@
-// The HTML report as an output (--report): each judged taxon's picture (its values, reference
-// rows, verdicts and the one-layer tests' cutoffs) as the taxon is judged, the top suspects as
-// the records are written, then the run overview (write/report/html_report.hpp).
+// The HTML report as an output (--report): every judged taxon is listed, and the --report-taxa
+// taxa whose worst suspect scores highest are kept (their records, reference rows and verdicts)
+// to be drawn when the report is finished — pictures (values, the one-layer tests' cutoffs, the
+// robust ellipse, the map) cost time, so only the sections written are drawn, and their time is
+// the report's. The top suspects are taken as the records are written (write/report/html_report.hpp).
 #include <algorithm>
 #include <cmath>
+#include <exception>
+#include <iterator>
 #include <map>
 #include <mutex>
 
@@ -38,16 +42,25 @@ class ReportOutput : public RecordSink {
   void begin(const RunContext& run) override {
     run_ = &run;
     const auto& s = run.settings;
-    report_ = std::make_unique<HtmlReport>(path_, relief_of(run), s.tests.seed, s.tests.min_records, s.outputs.report_taxa);
+    report_ = std::make_unique<HtmlReport>(path_, relief_of(run), s.tests.seed, s.tests.min_records);
     const auto& columns = run.table.points.columns;
     if (const auto it = std::find(columns.begin(), columns.end(), s.input.reader.columns.id); it != columns.end())
       id_column_ = static_cast<std::size_t>(it - columns.begin());
   }
 
   void taxon(const JudgedTaxon& taxon, const std::vector<Verdict>& verdicts) override {
-    report_->add_taxon(taxon.index, picture(taxon, verdicts), judged(verdicts));
+    TaxonListing listing{taxon.taxon, taxon.records.size(), judged(verdicts), 0};
+    double worst = 0;
+    for (const auto& v : verdicts)
+      if (!v.flags.empty()) ++listing.suspects, worst = std::max(worst, v.score.value_or(0));
+    report_->list_taxon(taxon.index, listing);
     std::lock_guard<std::mutex> guard(lock_);
     taxon_index_[taxon.taxon] = taxon.index;
+    // keep the report-taxa worst: highest worst score first, ties by index (the same set in any thread order)
+    const Key key{-worst, taxon.index};
+    if (kept_.size() == run_->settings.outputs.report_taxa && (kept_.empty() || !(key < kept_.rbegin()->first))) return;
+    kept_.emplace(key, Kept{taxon, verdicts, listing.judged});
+    if (kept_.size() > run_->settings.outputs.report_taxa) kept_.erase(std::prev(kept_.end()));
   }
 
   void record(const RecordOutcome& o) override {
@@ -83,6 +96,7 @@ class ReportOutput : public RecordSink {
     std::sort(top_.begin(), top_.end(), [](const ReportSuspect& a, const ReportSuspect& b) { return a.rank < b.rank; });
     v.top = top_;
     v.manifest_json = manifest_json(make_manifest(*run_, summary));
+    draw_kept();
     report_->finish(v);
   }
   void commit() override { report_->commit(); }
@@ -108,7 +122,15 @@ class ReportOutput : public RecordSink {
     return "line " + std::to_string(run_->table.points.records[i].line);
   }
   TaxonPicture picture(const JudgedTaxon& taxon, const std::vector<Verdict>& verdicts) const;
+  void draw_kept();
 
+  using Key = std::pair<double, std::size_t>;  // (−worst score, taxon index)
+  struct Kept {
+    JudgedTaxon taxon;
+    std::vector<Verdict> verdicts;
+    std::size_t judged = 0;
+  };
+  std::map<Key, Kept> kept_;
   std::string path_;
   const RunContext* run_ = nullptr;
   std::unique_ptr<HtmlReport> report_;
@@ -118,6 +140,28 @@ class ReportOutput : public RecordSink {
   std::map<std::string, std::size_t> taxon_index_;
   std::vector<ReportSuspect> top_;
 };
+
+// The kept taxa's sections, drawn in parallel and added in index order.
+void ReportOutput::draw_kept() {
+  std::vector<const Kept*> taxa;
+  for (const auto& [key, kept] : kept_) taxa.push_back(&kept);
+  std::sort(taxa.begin(), taxa.end(), [](const Kept* a, const Kept* b) { return a->taxon.index < b->taxon.index; });
+  std::vector<std::string> sections(taxa.size());
+  std::vector<std::exception_ptr> errors(taxa.size());
+#pragma omp parallel for schedule(dynamic, 1)
+  for (std::ptrdiff_t k = 0; k < static_cast<std::ptrdiff_t>(taxa.size()); ++k) {
+    const Kept& t = *taxa[static_cast<std::size_t>(k)];
+    try {
+      sections[static_cast<std::size_t>(k)] = report_->section(t.taxon.index, picture(t.taxon, t.verdicts), t.judged);
+    } catch (...) {
+      errors[static_cast<std::size_t>(k)] = std::current_exception();
+    }
+  }
+  for (std::size_t k = 0; k < taxa.size(); ++k) {
+    if (errors[k]) std::rethrow_exception(errors[k]);  // the first taxon's: the same for any thread count
+    report_->add_section(taxa[k]->taxon.index, sections[k]);
+  }
+}
 
 TaxonPicture ReportOutput::picture(const JudgedTaxon& taxon, const std::vector<Verdict>& verdicts) const {
   const RecordTable& t = run_->table;

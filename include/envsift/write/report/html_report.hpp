@@ -13,6 +13,7 @@
 #include <map>
 #include <memory>
 #include <mutex>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -45,30 +46,36 @@ struct ReliefSource {
   int band = 1;
 };
 
+// A taxon as the index lists it.
+struct TaxonListing {
+  std::string name;
+  std::size_t records = 0, judged = 0, suspects = 0;
+};
+
 class HtmlReport {
  public:
-  // `max_taxa`: at most this many taxon sections are written — all taxa when there are no more,
-  // else the taxa whose worst suspect scores highest; the index lists every taxon.
-  explicit HtmlReport(std::string path, ReliefSource relief = {}, std::uint64_t seed = 1, std::size_t min_rows = 10,
-                      std::size_t max_taxa = 100);
+  explicit HtmlReport(std::string path, ReliefSource relief = {}, std::uint64_t seed = 1, std::size_t min_rows = 10);
 
   // Thread-safe. `index`: the taxon's position in the index (taxa are listed in this order).
-  void add_taxon(std::size_t index, const TaxonPicture& picture, std::size_t judged);
+  void list_taxon(std::size_t index, const TaxonListing& listing);
+  // A taxon's section (its pictures and suspects); thread-safe, writes nothing.
+  std::string section(std::size_t index, const TaxonPicture& picture, std::size_t judged) const;
+  // Thread-safe: the taxon gets this section (a listed taxon without one is listed unlinked).
+  void add_section(std::size_t index, const std::string& section);
   // Writes the file under its temporary name; the anchors of the taxa are "taxon-<index>".
   void finish(const ReportOverview& overview);
   void commit();  // puts it in place
 
  private:
   struct Entry {
-    std::string name;
-    std::size_t records = 0, judged = 0, suspects = 0, section = 0;
-    double worst = 0;  // highest score of its suspects
+    TaxonListing listing;
+    std::optional<std::size_t> section;  // in sections_
   };
   std::string path_;
   std::unique_ptr<AtomicFile> out_;
   ReliefSource relief_;
   std::uint64_t seed_;
-  std::size_t min_rows_, max_taxa_;
+  std::size_t min_rows_;
   std::mutex lock_;
   FieldStore sections_;
   std::map<std::size_t, Entry> taxa_;
