@@ -7,7 +7,7 @@
 #include <string>
 #include <vector>
 
-#include "envsift/run/run_summary.hpp"
+#include "envsift/run_summary.hpp"
 #include "envsift/settings/option_spec.hpp"
 #include "envsift/settings/settings.hpp"
 

@@ -7,7 +7,7 @@
 #include <vector>
 
 #include "envsift/record_table.hpp"
-#include "envsift/run/run_summary.hpp"
+#include "envsift/run_summary.hpp"
 #include "envsift/score/verdict_store.hpp"
 #include "envsift/write/record_sink.hpp"
 

@@ -9,7 +9,7 @@
 
 #include "envsift/evaluate/detection_metrics.hpp"
 #include "envsift/evaluate/virtual_taxa.hpp"
-#include "envsift/run/run_summary.hpp"
+#include "envsift/run_summary.hpp"
 #include "envsift/settings/settings.hpp"
 
 namespace envsift {

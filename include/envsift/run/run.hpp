@@ -6,7 +6,7 @@
 #include <string>
 #include <vector>
 
-#include "envsift/run/run_summary.hpp"
+#include "envsift/run_summary.hpp"
 #include "envsift/settings/settings.hpp"
 #include "envsift/write/record_sink.hpp"
 

@@ -12,7 +12,7 @@
 #include "envsift/detect/judge_taxa.hpp"
 #include "envsift/detect/test_registry.hpp"
 #include "envsift/record_table.hpp"
-#include "envsift/run/run_summary.hpp"
+#include "envsift/run_summary.hpp"
 #include "envsift/score/scoring.hpp"
 #include "envsift/settings/settings.hpp"
 

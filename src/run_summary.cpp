@@ -1,4 +1,4 @@
-#include "envsift/run/run_summary.hpp"
+#include "envsift/run_summary.hpp"
 
 namespace envsift {
 namespace {

@@ -1,0 +1,108 @@
+// envsift's own contract (no outside reference): settings are validated by the library with the
+// command line's messages, so a program embedding envsift gets the same checks as the binary.
+#include <gtest/gtest.h>
+
+#include "../support.hpp"
+#include "envsift/errors.hpp"
+#include "envsift/run/run.hpp"
+#include "envsift/settings/run_options.hpp"
+
+namespace envsift {
+namespace {
+
+using namespace envsift::testing;
+
+ScreenSettings demo_settings(const std::string& out) {
+  ScreenSettings s;
+  s.input.points = source_path("demo-points/occurrences.csv");
+  s.input.layers = demo_layer_paths();
+  s.input.reader.require_taxon = true;
+  s.outputs.out = out;
+  return s;
+}
+
+std::string library_message(const ScreenSettings& s) {
+  try {
+    run_screen(s);
+  } catch (const UsageError& e) {
+    return e.what();
+  }
+  return "(no error)";
+}
+
+// The CLI's one-line error, without its "envsift: error: " prefix.
+std::string cli_message(const std::string& out, const std::string& options) {
+  const auto r = run(envsift_binary() + " screen -q --points " + source_path("demo-points/occurrences.csv") + demo_layers() +
+                     " --out " + out + " " + options);
+  EXPECT_EQ(r.exit_code, 2) << r.output;
+  const std::string prefix = "envsift: error: ";
+  const auto at = r.output.find(prefix);
+  if (at == std::string::npos) return r.output;
+  const auto end = r.output.find('\n', at);
+  return r.output.substr(at + prefix.size(), end - at - prefix.size());
+}
+
+TEST(Validation, EmbeddingAndCommandLineGetTheSameMessage) {
+  const auto dir = temp_dir("validation");
+  struct Case {
+    std::string options;
+    void (*change)(ScreenSettings&);
+  };
+  const Case cases[] = {
+      {"--z-cutoff 0", [](ScreenSettings& s) { s.tests.z_cutoff = 0; }},
+      {"--method cubic", [](ScreenSettings& s) { s.sampling.method = "cubic"; }},
+      {"--chi2-quantile 1", [](ScreenSettings& s) { s.tests.chi2_quantile = 1; }},
+      {"--min-records 2", [](ScreenSettings& s) { s.tests.min_records = 2; }},
+      {"--tests robust_z,gap", [](ScreenSettings& s) { s.tests.tests = {"robust_z", "gap"}; }},
+      {"--scale log", [](ScreenSettings& s) { s.tests.scale = "log"; }},
+      {"--elevation-tolerance 0 --dem dem", [](ScreenSettings& s) { s.elevation.tolerance_m = 0, s.elevation.dem_layer = "dem"; }},
+      {"--order rank --shard 0/2",
+       [](ScreenSettings& s) { s.outputs.order = "rank", s.outputs.shard_index = 0, s.outputs.shard_count = 2; }},
+  };
+  for (const auto& c : cases) {
+    SCOPED_TRACE(c.options);
+    ScreenSettings s = demo_settings(dir + "/library.csv");
+    c.change(s);
+    const std::string library = library_message(s);
+    EXPECT_NE(library, "(no error)");
+    EXPECT_EQ(library, cli_message(dir + "/cli.csv", c.options));
+  }
+  EXPECT_EQ(library_message([&] {
+              ScreenSettings s = demo_settings(dir + "/library.csv");
+              s.tests.z_cutoff = 0;
+              return s;
+            }()),
+            "--z-cutoff must be above 0, not 0");
+  EXPECT_FALSE(std::ifstream(dir + "/library.csv")) << "nothing is written by a refused run";
+}
+
+TEST(Validation, DefaultsAreValidAndShownAsWritten) {
+  ScreenSettings s = demo_settings("x.csv");
+  EXPECT_NO_THROW(validate(s));
+  EXPECT_EQ(number_text(0.05), "0.05");
+  EXPECT_EQ(number_text(0.975), "0.975");
+  EXPECT_EQ(number_text(0.15), "0.15");
+  EXPECT_EQ(number_text(25000), "25000");
+  EXPECT_EQ(number_text(1.0 / 3), "0.3333333333333333");  // 16 digits read back exactly
+  const auto r = run(envsift_binary() + " screen --help");
+  EXPECT_NE(r.output.find("(=0.05)"), std::string::npos);
+  EXPECT_NE(r.output.find("(=0.975)"), std::string::npos);
+  EXPECT_NE(r.output.find("(=0.15)"), std::string::npos);
+  EXPECT_EQ(r.output.find("0000000"), std::string::npos) << "a default printed as a long expansion";
+}
+
+TEST(Validation, SampleDoesNotSayFlaggedAndMergeAsksForTheShards) {
+  const auto dir = temp_dir("small-messages");
+  auto r = run(envsift_binary() + " sample -q --points " + source_path("demo-points/occurrences.csv") + demo_layers() +
+               " --out " + dir + "/s.csv");
+  ASSERT_EQ(r.exit_code, 0) << r.output;
+  EXPECT_EQ(r.output.find("flagged"), std::string::npos) << r.output;
+  EXPECT_NE(r.output.find("910 with values, 5 without"), std::string::npos) << r.output;
+  r = run(envsift_binary() + " merge --out " + dir + "/m.csv");
+  EXPECT_EQ(r.exit_code, 2);
+  EXPECT_NE(r.output.find("give the shard outputs"), std::string::npos) << r.output;
+  EXPECT_EQ(r.output.find("--shards"), std::string::npos) << r.output;
+}
+
+}  // namespace
+}  // namespace envsift
