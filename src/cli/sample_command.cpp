@@ -1,17 +1,13 @@
 #include "commands.hpp"
 #include "envsift/run/run.hpp"
-#include "envsift/settings/run_options.hpp"
-#include "envsift/write/output_registry.hpp"
+#include "envsift/run/validate.hpp"
 #include "options.hpp"
 #include "progress_display.hpp"
 
 namespace envsift::cli {
 
 int sample_command(int argc, char** argv) {
-  std::vector<OptionSpec> options = input_options();
-  options.insert(options.end(), sampling_options().begin(), sampling_options().end());
-  for (const auto& o : output_registry())
-    if (o.in_sample) options.push_back(o.option);
+  const std::vector<OptionSpec> options = sample_options();
   po::options_description d(
       "Sample every raster layer at every record's coordinates. Output: every input record once, in input\n"
       "order, with its original columns, one column per layer and a `status` column (`ok` or reason codes\n"

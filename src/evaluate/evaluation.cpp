@@ -54,7 +54,7 @@ class VerdictTally : public RecordSink {
       j.scored = r.tested && !std::isnan(r.statistic);  // as an empty statistic column reads
       j.flagged = std::find(v.flags.begin(), v.flags.end(), tests_[t]) != v.flags.end();
       if (j.scored) {
-        const double severity = as_written(r.statistic) / as_written(r.threshold);
+        const double severity = statistic_as_written(r.statistic) / statistic_as_written(r.threshold);
         j.score = j.flagged ? severity : std::min(severity, 1.0);
       }
       judged_[t].push_back(j);
@@ -70,7 +70,6 @@ class VerdictTally : public RecordSink {
   const std::vector<JudgedRecord>& judged(std::size_t test) const { return judged_[test]; }
 
  private:
-  static double as_written(double statistic) { return std::stod(format_statistic(statistic)); }
   std::vector<JudgedRecord> truth_;
   std::vector<std::string> tests_;
   std::vector<std::size_t> column_;

@@ -4,6 +4,7 @@
 
 #include "envsift/detect/judge_taxa.hpp"
 #include "envsift/score/population_guard.hpp"
+#include "envsift/write/value_format.hpp"
 #include "steps.hpp"
 
 namespace envsift::run {

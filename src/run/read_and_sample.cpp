@@ -1,6 +1,6 @@
 #include "envsift/detect/circular_layers.hpp"
 #include "envsift/reason_codes.hpp"
-#include "envsift/read/value_columns.hpp"
+#include "envsift/sample/value_columns.hpp"
 #include "envsift/run/run.hpp"
 #include "envsift/sample/sample_records.hpp"
 #include "envsift/stable_hash.hpp"

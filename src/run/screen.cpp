@@ -1,6 +1,7 @@
 #include "envsift/run/run.hpp"
 
 #include "envsift/errors.hpp"
+#include "envsift/run/validate.hpp"
 #include "envsift/settings/run_options.hpp"
 #include "envsift/write/output_registry.hpp"
 #include "envsift/write/record_columns.hpp"
@@ -29,7 +30,7 @@ RunSummary run_sample(const ScreenSettings& s) {
   const RecordTable t = run::read_and_sample(s, nullptr);
   summary.seconds = t.seconds;
   summary.warnings = t.warnings;
-  const RunContext run{s, t, nullptr, record_header(t, nullptr)};
+  const RunContext run{s, t, nullptr, record_header(t, nullptr), settings_as_written(sample_options(), s)};
   for (RecordSink* out : pointers(outputs)) out->begin(run);
   run::write_outputs(run, nullptr, pointers(outputs), summary);
   summary.seconds.emplace_back("total", started.seconds());
@@ -50,7 +51,7 @@ RunSummary run_screen(const ScreenSettings& s, const std::vector<RecordSink*>& e
   summary.seconds = t.seconds;
   clock.lap(summary.seconds, "sampling, total");
   const run::Membership membership = run::group_records(t, s);  // 3. group by taxon
-  const RunContext run{s, t, &tests, record_header(t, &tests)};
+  const RunContext run{s, t, &tests, record_header(t, &tests), settings_as_written(all_screen_options(), s)};
   for (RecordSink* out : outputs) out->begin(run);
   const run::Judgement judgement = run::judge_records(t, tests, membership, s, outputs);  // 4-5. tests, scores
   clock.lap(summary.seconds, "screen");

@@ -2,9 +2,6 @@
 
 #include <algorithm>
 #include <numeric>
-#include <string>
-
-#include "envsift/write/value_format.hpp"
 
 namespace envsift {
 
@@ -31,8 +28,6 @@ Verdict combine(const std::vector<const Finding*>& findings, const std::vector<s
     for (const auto& r : findings[t]->reasons) v.reasons.push_back(r);
   return v;
 }
-
-double score_as_written(double score) { return std::stod(format_score(score)); }
 
 std::vector<std::size_t> rank_by_score(const std::vector<std::optional<double>>& scores) {
   std::vector<std::size_t> order;

@@ -4,9 +4,7 @@
 #include <omp.h>
 #include <cpl_conv.h>
 
-#include "envsift/detect/test_registry.hpp"
 #include "envsift/errors.hpp"
-#include "envsift/write/output_registry.hpp"
 
 namespace envsift {
 namespace {
@@ -162,28 +160,11 @@ const std::vector<OptionSpec>& screen_options() {
   return options;
 }
 
-std::vector<OptionSpec> all_screen_options() {
-  std::vector<OptionSpec> all = input_options();
-  for (const auto* group : {&sampling_options(), &screen_options(), &test_options(), &output_options()})
-    all.insert(all.end(), group->begin(), group->end());
-  return all;
-}
-
 void validate_for_sample(const ScreenSettings& s) {
   check_options(input_options(), s);
   check_options(sampling_options(), s);
   if (s.input.layers.empty()) throw UsageError("--layers is required: give the rasters to sample");
   if (s.outputs.out.empty()) throw UsageError("--out is required: give the CSV file to write");
-}
-
-void validate(const ScreenSettings& s) {
-  check_options(all_screen_options(), s);
-  const InputSettings& in = s.input;
-  if (in.value_columns.empty() && in.layers.empty()) throw UsageError("give --layers (rasters to sample) or --value-columns");
-  if (!in.value_columns.empty() && !in.layers.empty()) throw UsageError("give either --layers or --value-columns, not both");
-  if (s.outputs.shard_count > 1 && s.outputs.order == "rank")
-    throw UsageError("--shard writes rows in input order (envsift merge ranks them); drop --order rank");
-  validate_tests(s);
 }
 
 SamplingPlan sampling_plan(const SamplingSettings& s) {

@@ -11,8 +11,7 @@
 #include "envsift/errors.hpp"
 #include <omp.h>
 
-#include "envsift/settings/run_options.hpp"
-#include "envsift/write/output_registry.hpp"
+#include "envsift/write/record_sink.hpp"
 
 namespace envsift {
 
@@ -86,13 +85,7 @@ RunManifest make_manifest(const RunContext& run, const RunSummary& summary) {
   const ScreenSettings& s = run.settings;
   RunManifest m;
   m.command_line = s.command_line;
-  std::vector<OptionSpec> options = input_options();
-  options.insert(options.end(), sampling_options().begin(), sampling_options().end());
-  if (run.screened()) options = all_screen_options();
-  else
-    for (const auto& o : output_registry())
-      if (o.in_sample) options.push_back(o.option);
-  for (const auto& o : options) m.options.emplace_back(o.name, o.get(s));
+  m.options = run.options;
   m.points = s.input.points;
   if (!run.table.layers_are_columns) m.layers = run.table.layers;
   m.seed = run.screened() ? s.tests.seed : 0;

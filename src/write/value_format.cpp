@@ -27,4 +27,11 @@ std::string format_score(double score) {
   return buf;
 }
 
+double score_as_written(double score) { return std::stod(format_score(score)); }
+
+double statistic_as_written(double statistic) {
+  const std::string text = format_statistic(statistic);
+  return text.empty() ? statistic : std::stod(text);
+}
+
 }  // namespace envsift

@@ -8,7 +8,7 @@
 
 #include "../support.hpp"
 #include "envsift/detect/test_registry.hpp"
-#include "envsift/settings/run_options.hpp"
+#include "envsift/run/validate.hpp"
 #include "envsift/write/output_registry.hpp"
 
 namespace envsift {
@@ -91,7 +91,7 @@ TEST(OutputRegistry, EveryOutputOpensFinishesAndCommitsOnAnEmptyRun) {
     const std::string path = dir + "/" + e.name + extension;
     auto sink = e.make(path, s);
     ASSERT_TRUE(sink);
-    const RunContext run{s, table, &tests, {"status", "rank", "score", "flags", "reasons"}};
+    const RunContext run{s, table, &tests, {"status", "rank", "score", "flags", "reasons"}, {}};
     sink->begin(run);
     RunSummary summary;
     sink->finish(summary);

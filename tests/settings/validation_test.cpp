@@ -5,7 +5,7 @@
 #include "../support.hpp"
 #include "envsift/errors.hpp"
 #include "envsift/run/run.hpp"
-#include "envsift/settings/run_options.hpp"
+#include "envsift/run/validate.hpp"
 
 namespace envsift {
 namespace {

@@ -35,10 +35,6 @@ struct Verdict {
 // `findings[t]` is test t's finding for this record; `names[t]` its name.
 Verdict combine(const std::vector<const Finding*>& findings, const std::vector<std::string>& names);
 
-// The score as written to the output (three decimals): records are ranked by it, so that merged
-// shards rank exactly as a single run and a reader of the file sees the order it was ranked in.
-double score_as_written(double score);
-
 // Rank 1 = highest score. Records without a score get rank 0 (written as empty).
 std::vector<std::size_t> rank_by_score(const std::vector<std::optional<double>>& scores);
 

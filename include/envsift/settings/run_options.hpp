@@ -1,5 +1,6 @@
-// The declared options of a run (settings/option_spec.hpp), grouped as the commands use them,
-// and the library's validation of a whole settings struct.
+// The declared options of reading and sampling (settings/option_spec.hpp), grouped as the
+// commands use them; the tests' are in detect/test_registry.hpp, the outputs' in
+// write/output_registry.hpp, and run/validate.hpp gathers them all.
 #pragma once
 #include <vector>
 
@@ -12,13 +13,8 @@ namespace envsift {
 const std::vector<OptionSpec>& input_options();     // --points, --layers, column names, ...
 const std::vector<OptionSpec>& sampling_options();  // --method, discs, memory, threads, GDAL
 const std::vector<OptionSpec>& screen_options();    // --value-columns, --single-taxon, --order, --shard
-// Every option `screen` takes: the above, the tests' (detect/test_registry.hpp) and the
-// outputs' (write/output_registry.hpp).
-std::vector<OptionSpec> all_screen_options();
-
-// Throws UsageError with the command line's message for the first setting that is out of its
-// bounds or choices, or that contradicts another. `sample` checks only what it uses.
-void validate(const ScreenSettings& settings);
+// Throws UsageError with the command line's message for the first setting `sample` uses that is
+// out of its bounds or choices (run/validate.hpp checks a screen's).
 void validate_for_sample(const ScreenSettings& settings);
 
 // What the settings mean for sampling, derived once: the interpolation, the block cache in

@@ -23,6 +23,7 @@ struct RunContext {
   const RecordTable& table;
   const ActiveTests* tests;         // null for `sample`
   std::vector<std::string> header;  // the record table's columns as written
+  std::vector<std::pair<std::string, std::string>> options;  // every option's value as written
   bool screened() const { return tests != nullptr; }
 };
 

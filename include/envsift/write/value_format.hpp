@@ -14,5 +14,10 @@ std::string format_statistic(double value);
 
 // Scores with three decimals.
 std::string format_score(double score);
+// The score as written (format_score read back): records are ranked by it, so that merged
+// shards rank exactly as a single run and a reader of the file sees the order it was ranked in.
+double score_as_written(double score);
+// A statistic as written (format_statistic read back); NaN stays NaN.
+double statistic_as_written(double statistic);
 
 }  // namespace envsift

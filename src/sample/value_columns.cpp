@@ -1,4 +1,4 @@
-#include "envsift/read/value_columns.hpp"
+#include "envsift/sample/value_columns.hpp"
 
 #include <algorithm>
 #include <cmath>
