@@ -77,7 +77,7 @@ const std::vector<OptionSpec>& test_options() {
     std::vector<OptionSpec> v{tests_option()};
     v.push_back(choice_option(
         "scale",
-        "how robust_z and the Mahalanobis tests measure distance on a layer. mad: one spread, 1.4826 × MAD, for both "
+        "how robust z and the Mahalanobis distances measure distance on a layer. mad: one spread, 1.4826 × MAD, for both "
         "sides of the taxon's median; skew: each side its own spread, from the adjusted boxplot's fence on that side "
         "(Hubert & Vandervieren 2008), so a long tail (rainfall, slope, distances) is not flagged. mad is the default "
         "because it measured better with envsift evaluate (README); try both on your rasters",

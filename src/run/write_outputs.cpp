@@ -1,4 +1,7 @@
+#include <algorithm>
 #include <numeric>
+
+#include "envsift/write/record_columns.hpp"
 
 #include "envsift/reason_codes.hpp"
 #include "steps.hpp"
@@ -28,30 +31,54 @@ void write_outputs(const RunContext& run, const Judgement* judgement, const std:
   }
   Progress* progress = run.settings.progress;
   if (progress) progress->stage("writing", n, "records");
-  std::vector<std::string> fields, codes;
-  Verdict verdict;
-  for (std::size_t i : rows) {
-    if (progress && summary.read % 4096 == 4095) progress->advance(4096);
-    ++summary.read;
-    t.points.fields.read(i, fields);
-    codes = t.codes.of(i);
-    bool scored = t.has_any_value(i);  // for `sample`, a record is done once it has values
-    if (judgement) {
-      judgement->verdicts->get(i, verdict);
-      for (const auto& c : verdict.codes)
-        if (std::find(codes.begin(), codes.end(), c) == codes.end()) codes.push_back(c);
-      scored = judgement->scores[i].has_value();
-      summary.flagged += scored && !verdict.flags.empty();
+  const bool rows_wanted = std::any_of(outputs.begin(), outputs.end(), [](RecordSink* o) { return o->wants_row(); });
+  // In batches: the stores are read in order on one thread, the rows formatted in parallel, the
+  // outputs fed in order on one thread.
+  constexpr std::size_t kBatch = 4096;
+  struct Pending {
+    std::vector<std::string> fields, codes, row;
+    Verdict verdict;
+  };
+  std::vector<Pending> batch(std::min(kBatch, n));
+  for (std::size_t start = 0; start < n; start += kBatch) {
+    const std::size_t size = std::min(kBatch, n - start);
+    for (std::size_t k = 0; k < size; ++k) {
+      const std::size_t i = rows[start + k];
+      Pending& p = batch[k];
+      t.points.fields.read(i, p.fields);
+      p.codes = t.codes.of(i);
+      bool scored = t.has_any_value(i);  // for `sample`, a record is done once it has values
+      if (judgement) {
+        judgement->verdicts->get(i, p.verdict);
+        for (const auto& c : p.verdict.codes)
+          if (std::find(p.codes.begin(), p.codes.end(), c) == p.codes.end()) p.codes.push_back(c);
+        scored = judgement->scores[i].has_value();
+        summary.flagged += scored && !p.verdict.flags.empty();
+      }
+      ++summary.read;
+      if (scored) {
+        ++summary.scored;
+      } else {
+        if (p.codes.empty() && judgement) p.codes.push_back(reason::no_values);
+        ++summary.not_scored[p.codes.empty() ? reason::no_values : p.codes.front()];
+      }
+      for (const auto& c : p.codes) ++summary.codes[c];
     }
-    if (scored) {
-      ++summary.scored;
-    } else {
-      if (codes.empty() && judgement) codes.push_back(reason::no_values);
-      ++summary.not_scored[codes.empty() ? reason::no_values : codes.front()];
+    auto outcome = [&](std::size_t k) {
+      const std::size_t i = rows[start + k];
+      return RecordOutcome{i, &batch[k].fields, &batch[k].codes, ranks[i], judgement ? &batch[k].verdict : nullptr,
+                           &batch[k].row};
+    };
+    if (rows_wanted) {
+#pragma omp parallel for schedule(static)
+      for (std::ptrdiff_t k = 0; k < static_cast<std::ptrdiff_t>(size); ++k)
+        batch[static_cast<std::size_t>(k)].row = record_row(t, outcome(static_cast<std::size_t>(k)));
     }
-    for (const auto& c : codes) ++summary.codes[c];
-    const RecordOutcome outcome{i, &fields, &codes, ranks[i], judgement ? &verdict : nullptr};
-    for (std::size_t k = 0; k < outputs.size(); ++k) timed(k, [&](RecordSink& out) { out.record(outcome); });
+    for (std::size_t k = 0; k < size; ++k) {
+      const RecordOutcome o = outcome(k);
+      for (std::size_t s = 0; s < outputs.size(); ++s) timed(s, [&](RecordSink& out) { out.record(o); });
+    }
+    if (progress) progress->advance(size);
   }
   // Every output finishes (complete under its temporary name) before any is put in place.
   for (std::size_t k = 0; k < outputs.size(); ++k) timed(k, [&](RecordSink& out) { out.finish(summary); });

@@ -33,6 +33,12 @@ std::string extension_of(const std::string& path) {
 
 }  // namespace
 
+std::string gis_path_complaint(const std::string& path) {
+  const std::string ext = extension_of(path);
+  if (ext == ".gpkg" || ext == ".geojson" || ext == ".json") return "";
+  return "needs a file ending in .gpkg (GeoPackage) or .geojson, not '" + path + "'";
+}
+
 struct GisWriter::Impl {
   std::string path;
   std::unique_ptr<TemporaryPath> temp;
@@ -53,9 +59,9 @@ GisWriter::GisWriter(std::string path, const std::vector<std::string>& header, c
   m.path = std::move(path);
   m.kinds = kinds;
   const std::string ext = extension_of(m.path);
-  const bool geojson = ext == ".geojson" || ext == ".json";
-  if (!geojson && ext != ".gpkg")
-    throw UsageError("--gis needs a file ending in .gpkg (GeoPackage) or .geojson, not '" + m.path + "'");
+  const std::string complaint = gis_path_complaint(m.path);
+  if (!complaint.empty()) throw UsageError("--gis " + complaint);
+  const bool geojson = ext != ".gpkg";
   m.temp = std::make_unique<TemporaryPath>(m.path, ext);
   GDALDriver* driver = GetGDALDriverManager()->GetDriverByName(geojson ? "GeoJSON" : "GPKG");
   m.ds = driver ? driver->Create(m.temp->temporary().c_str(), 0, 0, 0, GDT_Unknown, nullptr) : nullptr;

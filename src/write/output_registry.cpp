@@ -1,5 +1,7 @@
 #include "envsift/write/output_registry.hpp"
 
+#include "envsift/write/gis_writer.hpp"
+
 namespace envsift {
 
 // Each output is defined in its own file (src/write/outputs/, src/write/report/).
@@ -15,6 +17,15 @@ std::function<std::string&(ScreenSettings&)> path_of(std::string OutputSettings:
   return [member](ScreenSettings& s) -> std::string& { return s.outputs.*member; };
 }
 
+OptionSpec gis_option() {
+  OptionSpec o = text_option("gis", "FILE.gpkg|FILE.geojson",
+                             "also write every record as a point with all its attributes, for a desktop GIS; a "
+                             "GeoPackage also gets a layer of the uncertainty discs (polygons)",
+                             path_of(&OutputSettings::gis));
+  o.check = [](const ScreenSettings& s) { return s.outputs.gis.empty() ? std::string() : gis_path_complaint(s.outputs.gis); };
+  return o;
+}
+
 }  // namespace
 
 // The registry: one line per output, in the order they finish and commit.
@@ -22,12 +33,7 @@ const std::vector<OutputEntry>& output_registry() {
   static const std::vector<OutputEntry> entries{
       {"csv", text_option("out", "FILE.csv", "where to write the result (CSV)", path_of(&OutputSettings::out)), true,
        make_csv_output},
-      {"gis",
-       text_option("gis", "FILE.gpkg|FILE.geojson",
-                   "also write every record as a point with all its attributes, for a desktop GIS; a GeoPackage also "
-                   "gets a layer of the uncertainty discs (polygons)",
-                   path_of(&OutputSettings::gis)),
-       false, make_gis_output},
+      {"gis", gis_option(), false, make_gis_output},
       {"summary",
        text_option("summary", "FILE.csv",
                    "also write one row per taxon: records, judged, flagged per test and, with --dem, the taxon's robust "

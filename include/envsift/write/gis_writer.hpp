@@ -11,6 +11,9 @@ namespace envsift {
 
 enum class FieldKind : char { text = 's', real = 'r', integer = 'i' };
 
+// Why a path cannot be a GIS output ("" when it can): GeoPackage (.gpkg) or GeoJSON (.geojson).
+std::string gis_path_complaint(const std::string& path);
+
 class GisWriter {
  public:
   // `header`: the attribute names (the CSV output's columns); `kinds`: the type of each.

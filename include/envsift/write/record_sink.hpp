@@ -33,6 +33,8 @@ struct RecordOutcome {
   const std::vector<std::string>* codes = nullptr;   // its reason codes (empty: ok)
   std::size_t rank = 0;                             // 1 = most suspicious; 0 = not ranked
   const Verdict* verdict = nullptr;                 // null for `sample`
+  const std::vector<std::string>* row = nullptr;    // the record table's row as written, for
+                                                    // outputs that ask for it (wants_row)
 };
 
 class RecordSink {
@@ -43,6 +45,8 @@ class RecordSink {
   // Thread-safe; once per judged taxon, `verdicts[r]` for its r-th record.
   virtual void taxon(const JudgedTaxon&, const std::vector<Verdict>&) {}
   virtual void record(const RecordOutcome& outcome) = 0;  // in output order, one thread
+  // Whether record() needs `outcome.row` (formatted in parallel, once for every output).
+  virtual bool wants_row() const { return false; }
   virtual void finish(const RunSummary& summary) = 0;
   virtual void commit() = 0;
 };

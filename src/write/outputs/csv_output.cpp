@@ -1,7 +1,6 @@
 // The record table as CSV (--out): every input record once, its original fields untouched.
 #include "envsift/write/csv_writer.hpp"
 #include "envsift/write/output_registry.hpp"
-#include "envsift/write/record_columns.hpp"
 
 namespace envsift {
 namespace {
@@ -10,17 +9,14 @@ class CsvOutput : public RecordSink {
  public:
   explicit CsvOutput(const std::string& path) : out_(path) {}
   std::string name() const override { return "csv"; }
-  void begin(const RunContext& run) override {
-    table_ = &run.table;
-    out_.row(run.header);
-  }
-  void record(const RecordOutcome& o) override { out_.row(record_row(*table_, o)); }
+  void begin(const RunContext& run) override { out_.row(run.header); }
+  bool wants_row() const override { return true; }
+  void record(const RecordOutcome& o) override { out_.row(*o.row); }
   void finish(const RunSummary&) override { out_.finish(); }
   void commit() override { out_.commit(); }
 
  private:
   CsvWriter out_;
-  const RecordTable* table_ = nullptr;
 };
 
 }  // namespace

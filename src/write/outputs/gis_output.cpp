@@ -1,7 +1,6 @@
 // Every record as a point with all its attributes (--gis), for a desktop GIS.
 #include "envsift/write/gis_writer.hpp"
 #include "envsift/write/output_registry.hpp"
-#include "envsift/write/record_columns.hpp"
 
 namespace envsift {
 namespace {
@@ -21,9 +20,10 @@ class GisOutput : public RecordSink {
     }
     out_ = std::make_unique<GisWriter>(path_, run.header, kinds);
   }
+  bool wants_row() const override { return true; }
   void record(const RecordOutcome& o) override {
     const auto& r = table_->points.records[o.record];
-    out_->add(record_row(*table_, o), r.longitude, r.latitude, table_->radius_m[o.record]);
+    out_->add(*o.row, r.longitude, r.latitude, table_->radius_m[o.record]);
   }
   void finish(const RunSummary&) override { out_->finish(); }
   void commit() override { out_->commit(); }
