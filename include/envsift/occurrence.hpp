@@ -33,6 +33,7 @@ struct PointTable {
   std::vector<std::string> taxa{""};                   // taxon names, each once
   std::vector<std::vector<std::string>> problem_sets{{}};  // reason codes found while reading
   std::optional<std::size_t> uncertainty_column;       // index in `columns`, when the file has one
+  std::vector<std::string> warnings;                   // e.g. records that span several lines
 
   const std::string& taxon(std::size_t i) const { return taxa[records[i].taxon]; }
   const std::vector<std::string>& problems(std::size_t i) const { return problem_sets[records[i].problems]; }

@@ -3,6 +3,7 @@
 // name after a colon, e.g. `nodata:precip`. The README lists them all.
 #pragma once
 #include <string>
+#include <vector>
 
 namespace envsift::reason {
 
@@ -21,6 +22,7 @@ inline const std::string coord_decimal_comma = "coord_decimal_comma";  // "12,5"
 inline const std::string latin1_converted = "latin1_converted";        // bytes not UTF-8, read as Latin-1
 inline const std::string duplicate_id = "duplicate_id";                // another record has the same ID
 inline const std::string ragged_row = "ragged_row";                  // field count differs from header
+inline const std::string spans_lines = "spans_lines";                // a quoted field holds a line break
 inline const std::string uncertainty_not_numeric = "uncertainty_not_numeric";
 inline const std::string taxon_missing = "taxon_missing";            // empty taxon name (screen only)
 inline const std::string uncertainty_capped = "uncertainty_capped";  // disc cut to --max-uncertainty
@@ -40,5 +42,11 @@ inline const std::string other_shard = "other_shard";  // --shard: another shard
 inline const std::string looks_multimodal = "looks_multimodal";
 
 inline std::string on_layer(const std::string& code, const std::string& layer) { return code + ":" + layer; }
+
+// Whether a code says why a record could not be scored, rather than how it was read or a note
+// beside its score (coord_decimal_comma, duplicate_id, ragged_row, uncertainty_capped, ...).
+bool prevents_scoring(const std::string& code);
+// The reason an unscored record was not scored: its first code that prevents scoring, else no_values.
+std::string why_not_scored(const std::vector<std::string>& codes);
 
 }  // namespace envsift::reason

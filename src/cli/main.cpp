@@ -53,7 +53,9 @@ int main(int argc, char** argv) {
     std::cerr << "envsift: error: unknown command '" << command << "'; use sample, screen, merge or evaluate (envsift --help)\n";
     return static_cast<int>(ExitCode::usage);
   } catch (const envsift::Error& e) {
-    std::cerr << "envsift: error: " << e.what() << "\n";
+    std::cerr << "envsift: error: " << e.what()
+              << (e.code() == ExitCode::output_failed ? " (no output was written: every partial file was removed)" : "")
+              << "\n";
     return static_cast<int>(e.code());
   } catch (const std::exception& e) {
     std::cerr << "envsift: internal error: " << e.what() << "; please report it with the command line used\n";

@@ -52,6 +52,8 @@ Finding check_reported_elevation(const ReportedElevation& reported, const DemRan
 
 namespace envsift {
 
+const char* const kVerbatimElevation = "verbatimElevation";  // Darwin Core: the elevation as written
+
 DemRange dem_range(const RecordTable& t, std::size_t i, std::size_t dem) {
   const auto r = static_cast<Eigen::Index>(i), c = static_cast<Eigen::Index>(dem);
   const double point = t.values(r, c);
@@ -71,20 +73,44 @@ void ReportedElevationCheck::prepare(RecordTable& t) {
   dem_.resize(n);
   for (std::size_t i = 0; i < n; ++i) dem_[i] = dem_range(t, i, *dem);
   reported_.assign(n, {});
-  std::vector<std::tuple<std::string, std::optional<double> ReportedElevation::*, std::size_t>> wanted;
   const auto& columns = t.points.columns;
-  for (const auto& [name, member] : {std::pair{columns_.min_elevation, &ReportedElevation::min_m},
-                                     std::pair{columns_.max_elevation, &ReportedElevation::max_m}}) {
-    auto it = std::find(columns.begin(), columns.end(), name);
-    if (!name.empty() && it != columns.end()) wanted.emplace_back(name, member, static_cast<std::size_t>(it - columns.begin()));
+  auto column = [&](const std::string& name) -> std::optional<std::size_t> {
+    const auto it = std::find(columns.begin(), columns.end(), name);
+    if (name.empty() || it == columns.end()) return std::nullopt;
+    return static_cast<std::size_t>(it - columns.begin());
+  };
+  std::string found;
+  for (const auto& c : columns) found += (found.empty() ? "'" : ", '") + c + "'";
+  const ColumnNames standard;
+  for (const auto& [name, standard_name, option] : {std::tuple{columns_.min_elevation, standard.min_elevation, "--min-elevation-column"},
+                                                    std::tuple{columns_.max_elevation, standard.max_elevation, "--max-elevation-column"}})
+    if (name != standard_name && !column(name))
+      throw InputError(t.points.source, 1, "no reported elevation column '" + name + "' (columns found: " + found + ")",
+                       std::string("name the column with ") + option + ", or leave the option out");
+  const auto low = column(columns_.min_elevation), high = column(columns_.max_elevation);
+  const auto verbatim = low || high ? std::nullopt : column(kVerbatimElevation);
+  if (!low && !high && !verbatim) {
+    t.warnings.push_back("--dem " + dem_layer_ + ": the points have no reported elevation (no column " +
+                         columns_.min_elevation + ", " + columns_.max_elevation + " or " + kVerbatimElevation +
+                         "), so the elevation check judged no record; name the columns with --min-elevation-column");
+    return;
   }
-  if (wanted.empty()) return;
+  if (verbatim)
+    t.warnings.push_back("--dem " + dem_layer_ + ": reported elevations read from " + kVerbatimElevation + " (no " +
+                         columns_.min_elevation + " or " + columns_.max_elevation + " column)");
   std::vector<std::string> fields;
   for (std::size_t i = 0; i < n; ++i) {
     t.points.fields.read(i, fields);
-    for (const auto& [name, member, col] : wanted) {
-      const ParsedElevation e = parse_elevation(fields[col]);
-      if (!e.problem.empty()) t.codes.add(i, reason::on_layer(e.problem, name));
+    if (verbatim) {
+      const ParsedElevationRange e = parse_elevation_range(fields[*verbatim]);
+      if (!e.problem.empty()) t.codes.add(i, reason::on_layer(e.problem, kVerbatimElevation));
+      else if (e.present) reported_[i] = {e.low_m, e.high_m};
+      continue;
+    }
+    for (const auto& [col, member] : {std::pair{low, &ReportedElevation::min_m}, std::pair{high, &ReportedElevation::max_m}}) {
+      if (!col) continue;
+      const ParsedElevation e = parse_elevation(fields[*col]);
+      if (!e.problem.empty()) t.codes.add(i, reason::on_layer(e.problem, columns[*col]));
       else if (e.present) reported_[i].*member = e.metres;
     }
   }

@@ -4,8 +4,8 @@
 
 namespace envsift {
 
-CsvReader::CsvReader(std::istream& in, char delimiter, std::string source_name)
-    : in_(in), delimiter_(delimiter), source_(std::move(source_name)) {}
+CsvReader::CsvReader(std::istream& in, char delimiter, std::string source_name, Quoting quoting)
+    : in_(in), delimiter_(delimiter), quoting_(quoting), source_(std::move(source_name)) {}
 
 int CsvReader::get() { return in_.get(); }
 int CsvReader::peek() { return in_.peek(); }
@@ -47,6 +47,7 @@ bool CsvReader::next(std::vector<std::string>& fields, std::size_t& line) {
         throw InputError(source_, quote_line, "quote opened here is never closed",
                          "close the quote or remove it; a quote inside a field must be doubled (\"\")");
       fields.push_back(std::move(field));
+      ++line_;  // as if the last line had ended with a line break
       return true;
     }
     if (quoted) {
@@ -63,7 +64,7 @@ bool CsvReader::next(std::vector<std::string>& fields, std::size_t& line) {
       }
       continue;
     }
-    if (c == '"' && field.empty() && !was_quoted) {
+    if (c == '"' && field.empty() && !was_quoted && quoting_ == Quoting::rfc4180) {
       quoted = was_quoted = true;
       quote_line = line_;
     } else if (c == delimiter_) {

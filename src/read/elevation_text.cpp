@@ -39,3 +39,37 @@ ParsedElevation parse_elevation(std::string_view text) {
 }
 
 }  // namespace envsift
+
+namespace envsift {
+
+ParsedElevationRange parse_elevation_range(std::string_view text) {
+  ParsedElevationRange r;
+  const ParsedElevation one = parse_elevation(text);
+  if (one.problem.empty()) {
+    r.present = one.present, r.low_m = r.high_m = one.metres;
+    return r;
+  }
+  r.problem = one.problem;
+  const std::string s(text);
+  std::size_t at = std::string::npos, width = 0;
+  for (const char* separator : {" to ", "\xE2\x80\x93", "\xE2\x80\x94", "-"}) {  // en dash, em dash, hyphen
+    const std::size_t found = s.find(separator, 1);  // not a leading minus
+    if (found != std::string::npos) {
+      at = found, width = std::string(separator).size();
+      break;
+    }
+  }
+  if (at == std::string::npos) return r;
+  std::string first = s.substr(0, at), second = s.substr(at + width);
+  const std::size_t last_digit = second.find_last_of("0123456789");
+  const bool first_has_unit = first.find_first_not_of("0123456789 .") != std::string::npos;
+  if (last_digit != std::string::npos && !first_has_unit) first += second.substr(last_digit + 1);
+  const ParsedElevation a = parse_elevation(first), b = parse_elevation(second);
+  if (!a.problem.empty() || !b.problem.empty() || !a.present || !b.present) return r;
+  r.problem.clear();
+  r.present = true;
+  r.low_m = std::min(a.metres, b.metres), r.high_m = std::max(a.metres, b.metres);
+  return r;
+}
+
+}  // namespace envsift

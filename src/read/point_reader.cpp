@@ -80,10 +80,16 @@ ColumnIndex locate_columns(const PointTable& table, const ReaderOptions& o) {
     ix.longitude = required(o.columns.longitude, "longitude", "--longitude-column");
     ix.latitude = required(o.columns.latitude, "latitude", "--latitude-column");
   }
-  ix.id = find_column(table.columns, o.columns.id);
-  ix.uncertainty = find_column(table.columns, o.columns.uncertainty);
+  // An optional column is looked for under its Darwin Core name; one named by an option must exist.
+  const ColumnNames standard;
+  auto optional = [&](const std::string& name, const std::string& standard_name, const std::string& role,
+                      const std::string& option) {
+    return name == standard_name ? find_column(table.columns, name) : std::optional<std::size_t>(required(name, role, option));
+  };
+  ix.id = optional(o.columns.id, standard.id, "record identifier", "--id-column");
+  ix.uncertainty = optional(o.columns.uncertainty, standard.uncertainty, "coordinate uncertainty", "--uncertainty-column");
   if (o.require_taxon) ix.taxon = required(o.columns.taxon, "taxon", "--taxon-column");
-  else ix.taxon = find_column(table.columns, o.columns.taxon);
+  else ix.taxon = optional(o.columns.taxon, standard.taxon, "taxon", "--taxon-column");
   return ix;
 }
 
@@ -167,7 +173,9 @@ PointTable read_delimited(std::istream& in, const std::string& path, const Reade
   }
   PointTable table;
   table.source = path;
-  CsvReader reader(in, delimiter, path);
+  const Quoting quoting = o.quoting == "literal" || (o.quoting == "auto" && delimiter == '\t') ? Quoting::literal
+                                                                                                : Quoting::rfc4180;
+  CsvReader reader(in, delimiter, path, quoting);
   std::size_t line = 0;
   if (!reader.next(table.columns, line))
     throw InputError(path, 1, "the file is empty", "give a file with a header line and one record per line");
@@ -181,15 +189,31 @@ PointTable read_delimited(std::istream& in, const std::string& path, const Reade
   table.uncertainty_column = ix.uncertainty;
   TableBuilder builder(table, ix);
   std::vector<std::string> fields;
+  std::vector<std::string> spanning;  // "5-7": the lines of records that span several
+  std::size_t spans = 0;
   while (reader.next(fields, line)) {
     if (fields.size() == 1 && fields[0].empty()) continue;  // blank line: not a record
+    std::vector<std::string> codes;
     bool converted = false;
     for (auto& f : fields) {
       bool changed;
       f = to_utf8(f, changed);
       converted = converted || changed;
     }
-    builder.add(fields, line, converted ? std::vector<std::string>{reason::latin1_converted} : std::vector<std::string>{});
+    if (converted) codes.push_back(reason::latin1_converted);
+    if (reader.last_line() > line) {  // never merged without a word: the code, and the lines in a warning
+      codes.push_back(reason::spans_lines);
+      if (spans++ < 10) spanning.push_back(std::to_string(line) + "-" + std::to_string(reader.last_line()));
+    }
+    builder.add(fields, line, codes);
+  }
+  if (spans > 0) {
+    std::string lines;
+    for (const auto& l : spanning) lines += (lines.empty() ? "" : ", ") + l;
+    table.warnings.push_back(path + ": " + std::to_string(spans) + " record(s) span several lines, a quoted field holding a " +
+                             "line break (lines " + lines + (spans > spanning.size() ? ", ..." : "") +
+                             "; code spans_lines); if the file is a portal export or a Darwin Core Archive, quotes are "
+                             "plain characters there: read it with --quoting literal");
   }
   return table;
 }

@@ -87,10 +87,12 @@ RunSummary merge_shards(const std::vector<std::string>& paths, const std::string
     for (std::string code; std::getline(status_text, code, ';');)
       if (code != reason::ok) codes.push_back(code), ++summary.codes[code];
     if (scores[i]) ++summary.scored;
-    else ++summary.not_scored[codes.empty() ? reason::no_values : codes.front()];
+    else ++summary.not_scored[reason::why_not_scored(codes)];
     if (!row[flags].empty()) ++summary.flagged;
     out.row(row);
   }
+  out.finish();
+  pause_before_commit_for_tests();
   out.commit();
   return summary;
 }

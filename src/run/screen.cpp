@@ -1,6 +1,7 @@
 #include "envsift/run/run.hpp"
 
 #include "envsift/errors.hpp"
+#include "envsift/run/output_paths.hpp"
 #include "envsift/run/validate.hpp"
 #include "envsift/settings/run_options.hpp"
 #include "envsift/write/output_registry.hpp"
@@ -22,6 +23,7 @@ std::vector<RecordSink*> pointers(const std::vector<std::unique_ptr<RecordSink>>
 
 RunSummary run_sample(const ScreenSettings& s) {
   validate_for_sample(s);
+  refuse_unsafe_outputs(s, true);
   apply_process_settings(s.sampling);
   const auto outputs = open_outputs(s, true);
   const Stopwatch started;
@@ -39,6 +41,7 @@ RunSummary run_sample(const ScreenSettings& s) {
 
 RunSummary run_screen(const ScreenSettings& s, const std::vector<RecordSink*>& extra_outputs) {
   validate(s);
+  refuse_unsafe_outputs(s, false);
   apply_process_settings(s.sampling);
   const ActiveTests tests = activate_tests(s);
   const auto owned = open_outputs(s, false);

@@ -1,6 +1,7 @@
 #include <algorithm>
 #include <numeric>
 
+#include "envsift/write/atomic_file.hpp"
 #include "envsift/write/record_columns.hpp"
 
 #include "envsift/reason_codes.hpp"
@@ -59,8 +60,11 @@ void write_outputs(const RunContext& run, const Judgement* judgement, const std:
       if (scored) {
         ++summary.scored;
       } else {
-        if (p.codes.empty() && judgement) p.codes.push_back(reason::no_values);
-        ++summary.not_scored[p.codes.empty() ? reason::no_values : p.codes.front()];
+        // a screen's status always says why (a note such as coord_decimal_comma never does)
+        if (judgement && reason::why_not_scored(p.codes) == reason::no_values &&
+            std::find(p.codes.begin(), p.codes.end(), reason::no_values) == p.codes.end())
+          p.codes.push_back(reason::no_values);
+        ++summary.not_scored[reason::why_not_scored(p.codes)];
       }
       for (const auto& c : p.codes) ++summary.codes[c];
     }
@@ -82,7 +86,11 @@ void write_outputs(const RunContext& run, const Judgement* judgement, const std:
   }
   // Every output finishes (complete under its temporary name) before any is put in place.
   for (std::size_t k = 0; k < outputs.size(); ++k) timed(k, [&](RecordSink& out) { out.finish(summary); });
-  for (std::size_t k = 0; k < outputs.size(); ++k) timed(k, [&](RecordSink& out) { out.commit(); });
+  pause_before_commit_for_tests();
+  {
+    const CommitPhase committing;
+    for (std::size_t k = 0; k < outputs.size(); ++k) timed(k, [&](RecordSink& out) { out.commit(); });
+  }
   for (std::size_t k = 0; k < outputs.size(); ++k) summary.seconds.emplace_back("write " + outputs[k]->name(), seconds[k]);
   summary.seconds.emplace_back("write, total", started.seconds());
   if (progress) progress->finish();

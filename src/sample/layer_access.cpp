@@ -47,6 +47,8 @@ LayerAccess::LayerAccess(const LayerInfo& layer, std::size_t index, BlockCache& 
   srs_.SetAxisMappingStrategy(OAMS_TRADITIONAL_GIS_ORDER);
   const OGRSpatialReference wgs84 = wgs84_lon_lat();
   same_as_wgs84_ = srs_.IsSame(&wgs84);
+  if (!GDALInvGeoTransform(const_cast<double*>(layer.geotransform.data()), inverse_.data()))
+    throw InputError(layer.spec.path, "has a geotransform that cannot be inverted", "check its georeferencing (gdalinfo)");
 }
 
 std::unique_ptr<OGRCoordinateTransformation> LayerAccess::transformation(bool forward) const {
@@ -73,13 +75,13 @@ void LayerAccess::to_layer(std::vector<double>& x, std::vector<double>& y) const
 }
 
 bool LayerAccess::pixel(double x, double y, double& px, double& py, double* shift) const {
-  const auto& gt = layer_.geotransform;
-  px = (x - gt[0]) / gt[1];
-  py = (y - gt[3]) / gt[5];
+  const auto& inv = inverse_;  // geotransforms are never rotated here (refused when read)
+  px = inv[0] + inv[1] * x + inv[2] * y;
+  py = inv[3] + inv[4] * x + inv[5] * y;
   if (shift) *shift = 0;
   if (layer_.geographic && std::isfinite(px) && (px < 0 || px >= layer_.width)) {
     for (double s : {360.0, -360.0}) {
-      const double alt = (x + s - gt[0]) / gt[1];
+      const double alt = inv[0] + inv[1] * (x + s) + inv[2] * y;
       if (alt >= 0 && alt < layer_.width) {
         px = alt;
         if (shift) *shift = s;

@@ -1,6 +1,7 @@
 // Private to the sampling step: one layer's geometry and cell values, shared by point and disc
 // sampling.
 #pragma once
+#include <array>
 #include <memory>
 #include <vector>
 
@@ -37,6 +38,8 @@ class LayerAccess {
   void to_layer(std::vector<double>& x, std::vector<double>& y) const;
   // Pixel position of layer coordinates (cell centres at .5), with a ±360° retry on geographic
   // layers (0…360° rasters, points across the antimeridian). `shift` receives the retry used.
+  // Computed through the inverse geotransform exactly as gdallocationinfo does, so that a point
+  // on a cell edge (coordinates rounded to a multiple of the cell size) falls in the same cell.
   bool pixel(double x, double y, double& px, double& py, double* shift = nullptr) const;
 
   BlockCache::BlockPtr block(int bx, int by);
@@ -52,6 +55,7 @@ class LayerAccess {
   ThreadHandles& handles_;
   OGRSpatialReference srs_;
   bool same_as_wgs84_ = false;
+  std::array<double, 6> inverse_{};  // the inverse geotransform, as GDAL's tools compute it
 };
 
 }  // namespace envsift::detail

@@ -71,6 +71,7 @@ RecordTable sample_records(const ScreenSettings& s, const std::vector<std::strin
   const SamplingPlan plan = sampling_plan(s.sampling);
   const auto specs = expand_layer_arguments(s.input.layers);
   t.points = read_points(s.input.points, s.input.reader);
+  t.warnings = t.points.warnings;
   clock.lap(t.seconds, "read points");
   const std::size_t n = t.size();
   t.has_discs = s.sampling.discs && (t.points.uncertainty_column || s.sampling.default_radius_m > 0);

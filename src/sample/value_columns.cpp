@@ -16,6 +16,7 @@ RecordTable read_value_columns(const ScreenSettings& s, const std::vector<std::s
   ReaderOptions reader = s.input.reader;
   reader.coordinates_optional = true;
   t.points = read_points(s.input.points, reader);
+  t.warnings = t.points.warnings;
   t.layers_are_columns = true;
   std::vector<std::string> columns = t.points.columns;
   columns.insert(columns.end(), added_columns.begin(), added_columns.end());
@@ -40,7 +41,7 @@ RecordTable read_value_columns(const ScreenSettings& s, const std::vector<std::s
     t.points.fields.read(i, fields);
     for (const auto& p : t.points.problems(i))
       if (p == reason::ragged_row || p == reason::uncertainty_not_numeric || p == reason::latin1_converted ||
-          p == reason::duplicate_id)
+          p == reason::duplicate_id || p == reason::spans_lines)
         t.codes.add(i, p);
     std::uint64_t key = kFnvBasis;  // over the values' bits: equal values, equal key
     for (std::size_t l = 0; l < index.size(); ++l) {

@@ -92,6 +92,12 @@ const std::vector<OptionSpec>& input_options() {
                               "that radius (columns LAYER_min, LAYER_mean, LAYER_max)",
                               &ColumnNames::uncertainty));
     v.push_back(delimiter_option());
+    v.push_back(choice_option("quoting",
+                              "how quotes in a text points file are read. auto: tab-separated text literally (a quote "
+                              "is a character, as in data-portal exports and Darwin Core Archives), other delimiters "
+                              "as RFC 4180 (a quoted field may hold the delimiter and line breaks); or rfc4180 | literal",
+                              [](ScreenSettings& s) -> std::string& { return s.input.reader.quoting; },
+                              {"auto", "rfc4180", "literal"}));
     v.push_back(text_option("points-layer", "NAME", "layer of a multi-layer GeoPackage (default: the first)",
                             [](ScreenSettings& s) -> std::string& { return s.input.reader.vector_layer; }));
     v.push_back(text_option("assume-crs", "CRS",

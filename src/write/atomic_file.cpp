@@ -13,7 +13,7 @@ namespace envsift {
 namespace {
 
 // Temporary files being written, readable from a signal handler: fixed storage, atomic flags.
-constexpr int kSlots = 32;
+constexpr int kSlots = 64;
 char g_partial[kSlots][4096];
 std::atomic<bool> g_in_use[kSlots];
 
@@ -32,9 +32,20 @@ void forget_partial(int slot) {
   if (slot >= 0) g_in_use[slot].store(false);
 }
 
+std::atomic<bool> g_committing{false};
+
+// GDAL's SQLite-based writers (GeoPackage) keep side files beside the file while it is open.
+const char* const kSideFiles[] = {"-journal", "-wal", "-shm"};
+
 extern "C" void on_signal(int signal) {
+  bool removed = false;
   for (int i = 0; i < kSlots; ++i)
-    if (g_in_use[i].load()) ::unlink(g_partial[i]);  // async-signal-safe
+    if (g_in_use[i].load()) ::unlink(g_partial[i]), removed = true;  // async-signal-safe
+  static const char interrupted[] = "\nenvsift: interrupted; no output was written (partial files removed)\n";
+  static const char committing[] = "\nenvsift: interrupted while the outputs were being put in place; some may be "
+                                   "missing or from an earlier run: run again\n";
+  if (g_committing.load()) (void)!::write(2, committing, sizeof committing - 1);
+  else if (removed) (void)!::write(2, interrupted, sizeof interrupted - 1);
   std::signal(signal, SIG_DFL);
   std::raise(signal);
 }
@@ -47,18 +58,25 @@ void remove_partial_outputs_on_signal() {
 }
 
 TemporaryPath::TemporaryPath(std::string target, const std::string& suffix)
-    : target_(std::move(target)), temporary_(target_ + ".partial-" + std::to_string(::getpid()) + suffix),
-      slot_(remember_partial(temporary_)) {}
+    : target_(std::move(target)), temporary_(target_ + ".partial-" + std::to_string(::getpid()) + suffix) {
+  slots_.push_back(remember_partial(temporary_));
+  for (const char* side : kSideFiles) slots_.push_back(remember_partial(temporary_ + side));
+}
 
 TemporaryPath::~TemporaryPath() {
   if (!committed_) std::remove(temporary_.c_str());
-  forget_partial(slot_);
+  for (const char* side : kSideFiles) std::remove((temporary_ + side).c_str());
+  for (int slot : slots_) forget_partial(slot);
+}
+
+CommitPhase::CommitPhase() { g_committing.store(true); }
+CommitPhase::~CommitPhase() { g_committing.store(false); }
+
+void pause_before_commit_for_tests() {
+  if (const char* pause = std::getenv("ENVSIFT_TEST_PAUSE_BEFORE_COMMIT")) ::sleep(static_cast<unsigned>(std::atoi(pause)));
 }
 
 void TemporaryPath::commit() {
-  // Test hook (tests/cli/atomic_output_test.cpp): hold the finished temporary file for a while, so
-  // a test can interrupt the run at the last moment.
-  if (const char* pause = std::getenv("ENVSIFT_TEST_PAUSE_BEFORE_COMMIT")) ::sleep(static_cast<unsigned>(std::atoi(pause)));
   if (std::rename(temporary_.c_str(), target_.c_str()) != 0) {
     const int err = errno;
     std::remove(temporary_.c_str());

@@ -1,5 +1,8 @@
-// A streaming reader for delimited text (RFC 4180 quoting): quoted fields may hold the delimiter,
-// doubled quotes and line breaks; CRLF and LF both end a record; a UTF-8 byte-order mark is skipped.
+// A streaming reader for delimited text. With RFC 4180 quoting, quoted fields may hold the
+// delimiter, doubled quotes and line breaks. Literal reading (what data-portal exports and Darwin
+// Core Archives use for tab-separated text) takes a quote as a character like any other: a
+// field is the text between delimiters and every line is a record. CRLF and LF both end a
+// record; a UTF-8 byte-order mark is skipped.
 #pragma once
 #include <cstddef>
 #include <istream>
@@ -8,13 +11,17 @@
 
 namespace envsift {
 
+enum class Quoting { rfc4180, literal };
+
 class CsvReader {
  public:
-  CsvReader(std::istream& in, char delimiter, std::string source_name);
+  CsvReader(std::istream& in, char delimiter, std::string source_name, Quoting quoting = Quoting::rfc4180);
 
   // Reads the next record into `fields`. Returns false at end of input. `line` is set to the
   // 1-based line number where the record starts. Throws InputError on an unterminated quote.
   bool next(std::vector<std::string>& fields, std::size_t& line);
+  // The line the last record read ended on (after `line` when a quoted field held a line break).
+  std::size_t last_line() const { return line_ - 1; }
 
  private:
   int get();
@@ -22,6 +29,7 @@ class CsvReader {
 
   std::istream& in_;
   char delimiter_;
+  Quoting quoting_;
   std::string source_;
   std::size_t line_ = 1;
   bool at_start_ = true;

@@ -17,3 +17,16 @@ struct ParsedElevation {
 ParsedElevation parse_elevation(std::string_view text);
 
 }  // namespace envsift
+
+namespace envsift {
+
+// An elevation or a range as Darwin Core's verbatimElevation holds it: "1200 m", "1200-1400 m",
+// "1200 – 1400 m", "1200 to 1400 ft" (a unit written once applies to both ends).
+struct ParsedElevationRange {
+  double low_m = 0, high_m = 0;
+  bool present = false;
+  std::string problem;  // as for parse_elevation
+};
+ParsedElevationRange parse_elevation_range(std::string_view text);
+
+}  // namespace envsift

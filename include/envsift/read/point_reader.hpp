@@ -22,6 +22,9 @@ struct ColumnNames {
 struct ReaderOptions {
   ColumnNames columns;
   char delimiter = 0;          // 0: '\t' for .tsv/.tab, else sniffed from the header line
+  // auto: tab-separated text is read literally (a quote is a character, as in data-portal exports
+  // and Darwin Core Archives), other delimiters with RFC 4180 quoting; or rfc4180 | literal.
+  std::string quoting = "auto";
   bool require_taxon = false;  // screening needs a taxon column; sampling does not
   std::string vector_layer;    // layer of a multi-layer vector source; empty = the first
   bool coordinates_optional = false;  // screening pre-sampled values: coordinates are not needed

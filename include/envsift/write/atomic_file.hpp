@@ -5,6 +5,7 @@
 #pragma once
 #include <cstdio>
 #include <string>
+#include <vector>
 
 namespace envsift {
 
@@ -22,7 +23,7 @@ class TemporaryPath {
 
  private:
   std::string target_, temporary_;
-  int slot_ = -1;  // in the signal handler's list of partial outputs
+  std::vector<int> slots_;  // in the signal handler's list of partial outputs (with side files)
   bool committed_ = false;
 };
 
@@ -43,8 +44,21 @@ class AtomicFile {
   std::FILE* file_ = nullptr;
 };
 
-// On SIGINT, SIGTERM or SIGHUP, removes every output still being written (its temporary file),
-// then lets the signal end the process as it would have. Call once, early in main().
+// Test hook (tests/cli/atomic_output_test.cpp): with ENVSIFT_TEST_PAUSE_BEFORE_COMMIT=SECONDS,
+// waits that long when every output has finished and none is in place yet, so that a test can
+// interrupt the run at the last moment.
+void pause_before_commit_for_tests();
+
+// While one lives, the outputs are being renamed into place: a signal then says so instead of
+// "no output was written".
+struct CommitPhase {
+  CommitPhase();
+  ~CommitPhase();
+};
+
+// On SIGINT, SIGTERM or SIGHUP, removes every output still being written (its temporary file and
+// GDAL's side files), says on stderr that nothing was written, then lets the signal end the
+// process as it would have. Call once, early in main().
 void remove_partial_outputs_on_signal();
 
 }  // namespace envsift

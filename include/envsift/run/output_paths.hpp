@@ -1,0 +1,13 @@
+// Outputs that would destroy something: an output that is the same file as an input (the points
+// or a layer, compared by device and inode, not by name), two outputs that are one file, and an
+// output path that exists and is not a regular file (a device, FIFO, directory or symbolic link,
+// which renaming the finished output over it would replace).
+#pragma once
+#include "envsift/settings/settings.hpp"
+
+namespace envsift {
+
+// Throws UsageError naming the two paths that collide, or the path that is not a file, and what to do.
+void refuse_unsafe_outputs(const ScreenSettings& settings, bool sample);
+
+}  // namespace envsift

@@ -1,0 +1,22 @@
+#include "envsift/reason_codes.hpp"
+
+#include <algorithm>
+
+namespace envsift::reason {
+
+bool prevents_scoring(const std::string& code) {
+  // notes: the record was read (or judged) all the same
+  static const std::string notes[] = {coord_dms,         coord_hemisphere,        coord_decimal_comma, latin1_converted,
+                                      duplicate_id,      ragged_row,              spans_lines,              uncertainty_not_numeric,
+                                      uncertainty_capped, coord_possibly_swapped, elevation_unreadable, looks_multimodal};
+  const std::string base = code.substr(0, code.find(':'));
+  return std::find(std::begin(notes), std::end(notes), base) == std::end(notes);
+}
+
+std::string why_not_scored(const std::vector<std::string>& codes) {
+  for (const auto& c : codes)
+    if (prevents_scoring(c)) return c;
+  return no_values;
+}
+
+}  // namespace envsift::reason
