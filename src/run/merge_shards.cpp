@@ -7,6 +7,7 @@
 #include "envsift/errors.hpp"
 #include "envsift/read/csv_reader.hpp"
 #include "envsift/reason_codes.hpp"
+#include "envsift/run/output_paths.hpp"
 #include "envsift/run/run.hpp"
 #include "envsift/score/scoring.hpp"
 #include "envsift/write/csv_writer.hpp"
@@ -19,6 +20,9 @@ RunSummary merge_shards(const std::vector<std::string>& paths, const std::string
     std::ifstream in;
     std::unique_ptr<CsvReader> reader;
   };
+  std::vector<NamedPath> inputs;
+  for (const auto& p : paths) inputs.push_back({"a shard output", p});
+  refuse_unsafe_outputs({{"--out", out_path}}, inputs);
   std::vector<Shard> shards(paths.size());
   std::vector<std::string> header;
   auto open_all = [&]() {

@@ -58,5 +58,19 @@ TEST(OutputSafety, SampleRefusesToOverwriteItsInputToo) {
   EXPECT_EQ(checksums(dir), before);
 }
 
+TEST(OutputSafety, MergeRefusesToOverwriteAShard) {
+  const auto dir = temp_dir("output-safety-merge");
+  for (const char* i : {"0", "1"}) {
+    auto r = run(envsift_binary() + " screen -q --points " + source_path("demo-points/occurrences.csv") + demo_layers() +
+                 " --shard " + i + "/2 --out " + dir + "/shard" + i + ".csv");
+    ASSERT_EQ(r.exit_code, 0) << r.output;
+  }
+  const std::string before = checksums(dir);
+  auto r = run(envsift_binary() + " merge " + dir + "/shard0.csv " + dir + "/shard1.csv --out " + dir + "/shard1.csv");
+  EXPECT_EQ(r.exit_code, 2) << r.output;
+  EXPECT_NE(r.output.find("is the input a shard output"), std::string::npos) << r.output;
+  EXPECT_EQ(checksums(dir), before);
+}
+
 }  // namespace
 }  // namespace envsift

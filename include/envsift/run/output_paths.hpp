@@ -3,11 +3,21 @@
 // output path that exists and is not a regular file (a device, FIFO, directory or symbolic link,
 // which renaming the finished output over it would replace).
 #pragma once
+#include <string>
+#include <vector>
+
 #include "envsift/settings/settings.hpp"
 
 namespace envsift {
 
+// A path as the command line named it: the option ("--out") and the path.
+struct NamedPath {
+  std::string option, path;
+};
+
 // Throws UsageError naming the two paths that collide, or the path that is not a file, and what to do.
+void refuse_unsafe_outputs(const std::vector<NamedPath>& outputs, const std::vector<NamedPath>& inputs);
+// The same for the outputs and inputs of a screen (or of `sample`).
 void refuse_unsafe_outputs(const ScreenSettings& settings, bool sample);
 
 }  // namespace envsift
