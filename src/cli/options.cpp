@@ -34,6 +34,39 @@ void add_run_switches(po::options_description& d) {
     ("help,h", "show this help");
 }
 
+namespace {
+
+// Edit distance (insertions, deletions, substitutions) between two option names.
+std::size_t edit_distance(const std::string& a, const std::string& b) {
+  std::vector<std::size_t> row(b.size() + 1);
+  for (std::size_t j = 0; j <= b.size(); ++j) row[j] = j;
+  for (std::size_t i = 1; i <= a.size(); ++i) {
+    std::size_t diagonal = row[0];
+    row[0] = i;
+    for (std::size_t j = 1; j <= b.size(); ++j) {
+      const std::size_t above = row[j];
+      row[j] = std::min({row[j] + 1, row[j - 1] + 1, diagonal + (a[i - 1] == b[j - 1] ? 0 : 1)});
+      diagonal = above;
+    }
+  }
+  return row[b.size()];
+}
+
+// The declared option a mistyped one most likely meant (two edits at most), or "".
+std::string closest_option(std::string typed, const po::options_description& options) {
+  while (!typed.empty() && typed[0] == '-') typed.erase(0, 1);
+  std::string best;
+  std::size_t best_distance = 3;
+  for (const auto& o : options.options()) {
+    const std::string name = o->long_name();
+    const std::size_t d = edit_distance(typed, name);
+    if (d < best_distance) best = name, best_distance = d;
+  }
+  return best;
+}
+
+}  // namespace
+
 bool parse(int argc, char** argv, const std::string& command, const std::string& synopsis,
            const po::options_description& options, po::variables_map& vm,
            const po::positional_options_description* positional, const po::options_description* visible) {
@@ -50,6 +83,10 @@ bool parse(int argc, char** argv, const std::string& command, const std::string&
     if (positional) parser.positional(*positional);
     po::store(parser.run(), vm);
     po::notify(vm);
+  } catch (const po::unknown_option& e) {
+    const std::string near = closest_option(e.get_option_name(), options);
+    throw UsageError(std::string(e.what()) + (near.empty() ? "" : " (did you mean --" + near + "?)") + "; see 'envsift " +
+                     command + " --help'");
   } catch (const po::error& e) {
     throw UsageError(std::string(e.what()) + "; see 'envsift " + command + " --help'");
   }

@@ -91,6 +91,14 @@ TEST(Validation, DefaultsAreValidAndShownAsWritten) {
   EXPECT_EQ(r.output.find("0000000"), std::string::npos) << "a default printed as a long expansion";
 }
 
+TEST(Validation, AMistypedOptionGetsTheNearestDeclaredOne) {
+  const auto r = run(envsift_binary() + " screen --points x.csv --layers y.tif --out z.csv --z-cuttoff 3");
+  EXPECT_EQ(r.exit_code, 2);
+  EXPECT_NE(r.output.find("unrecognised option '--z-cuttoff' (did you mean --z-cutoff?)"), std::string::npos) << r.output;
+  const auto far = run(envsift_binary() + " screen --points x.csv --layers y.tif --out z.csv --colour red");
+  EXPECT_EQ(far.output.find("did you mean"), std::string::npos) << far.output;
+}
+
 TEST(Validation, SampleDoesNotSayFlaggedAndMergeAsksForTheShards) {
   const auto dir = temp_dir("small-messages");
   auto r = run(envsift_binary() + " sample -q --points " + source_path("demo-points/occurrences.csv") + demo_layers() +
