@@ -28,6 +28,8 @@ inline const std::string taxon_missing = "taxon_missing";            // empty ta
 inline const std::string uncertainty_capped = "uncertainty_capped";  // disc cut to --max-uncertainty
 // (suffix ":<column>") a reported elevation that is not one number with a known unit
 inline const std::string elevation_unreadable = "elevation_unreadable";
+inline const std::string elevation_ambiguous = "elevation_ambiguous";    // "1,200", "1.200": 1.2 or 1200?
+inline const std::string elevation_approximate = "elevation_approximate";  // "ca. 1200 m": read, and noted
 // Sampling (suffix ":<layer>")
 inline const std::string outside_layer = "outside_layer";  // point falls outside the raster's extent
 inline const std::string nodata = "nodata";                // the cell holds the layer's nodata value

@@ -112,6 +112,7 @@ void ReportedElevationCheck::prepare(RecordTable& t) {
       const ParsedElevation e = parse_elevation(fields[*col]);
       if (!e.problem.empty()) t.codes.add(i, reason::on_layer(e.problem, columns[*col]));
       else if (e.present) reported_[i].*member = e.metres;
+      if (e.approximate) t.codes.add(i, reason::on_layer(reason::elevation_approximate, columns[*col]));
     }
   }
 }

@@ -17,10 +17,17 @@ std::string_view trim(std::string_view t) {
   return t.substr(b, e - b + 1);
 }
 
+bool is_missing_marker(std::string_view text) {
+  text = trim(text);
+  for (std::string_view marker : {"NA", "N/A", "na", "n/a", "null", "NULL", "Null", "\\N", "-", "--"})
+    if (text == marker) return true;
+  return false;
+}
+
 ParsedNumber parse_number(std::string_view text) {
   ParsedNumber out;
   text = trim(text);
-  if (text.empty()) {
+  if (text.empty() || is_missing_marker(text)) {
     out.problem = "empty";
     return out;
   }

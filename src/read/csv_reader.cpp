@@ -73,7 +73,7 @@ bool CsvReader::next(std::vector<std::string>& fields, std::size_t& line) {
       was_quoted = false;
     } else if (c == '\r' && peek() == '\n') {
       // CRLF: the '\n' ends the record on the next iteration
-    } else if (c == '\n') {
+    } else if (c == '\n' || c == '\r') {  // LF, or a lone CR (old Mac line endings)
       ++line_;
       fields.push_back(std::move(field));
       return true;

@@ -7,12 +7,49 @@
 
 namespace envsift {
 
-ParsedElevation parse_elevation(std::string_view text) {
+namespace {
+
+// Removes an approximate marker (ca., c., ~, approx., (approx.)) from either end.
+bool strip_approximate(std::string& s) {
+  bool found = false;
+  for (bool again = true; again;) {
+    again = false;
+    const std::string_view t = trim(s);
+    s = std::string(t);
+    for (const char* marker : {"(approx.)", "(approx)", "approx.", "approx", "ca.", "ca ", "c.", "~"}) {
+      const std::string m = marker;
+      if (s.size() > m.size() && s.compare(0, m.size(), m) == 0) s.erase(0, m.size()), again = found = true;
+      else if (s.size() > m.size() && s.compare(s.size() - m.size(), m.size(), m) == 0)
+        s.erase(s.size() - m.size()), again = found = true;
+    }
+  }
+  return found;
+}
+
+// "1.200", "12.500": a point followed by exactly three digits after one to three digits — a
+// thousands separator in many locales.
+bool looks_like_thousands_point(const std::string& number) {
+  const auto dot = number.find('.');
+  if (dot == std::string::npos || dot == 0 || dot > 3 || number.size() - dot - 1 != 3) return false;
+  if (number[0] == '0' || (number[0] == '-' && dot > 1 && number[1] == '0')) return false;
+  return number.find_first_not_of("0123456789.-") == std::string::npos;
+}
+
+void replace_all(std::string& s, const std::string& from, const std::string& to) {
+  for (std::size_t at = s.find(from); at != std::string::npos; at = s.find(from, at + to.size())) s.replace(at, from.size(), to);
+}
+
+}  // namespace
+
+ParsedElevation parse_elevation(std::string_view raw) {
   ParsedElevation out;
-  text = trim(text);
-  if (text.empty()) return out;
+  std::string owned(trim(raw));
+  if (owned.empty() || is_missing_marker(owned)) return out;
   out.present = true;
   out.problem = "elevation_unreadable";
+  replace_all(owned, "\xE2\x80\xB2", "'");  // the prime sign: feet
+  out.approximate = strip_approximate(owned);
+  const std::string_view text = owned;
   // split number and unit at the first letter or apostrophe
   std::size_t cut = 0;
   while (cut < text.size() && !std::isalpha(static_cast<unsigned char>(text[cut])) && text[cut] != '\'') ++cut;
@@ -22,7 +59,10 @@ ParsedElevation parse_elevation(std::string_view text) {
   std::string unit;
   for (char c : text.substr(cut))
     if (c != ' ' && c != '.') unit += static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
-  if (number.find(',') != std::string::npos) return out;
+  if (number.find(',') != std::string::npos || looks_like_thousands_point(number)) {
+    out.problem = "elevation_ambiguous";
+    return out;
+  }
   const ParsedNumber n = parse_number(number);
   if (!n.problem.empty()) return out;
   double factor;

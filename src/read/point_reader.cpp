@@ -164,8 +164,10 @@ PointTable read_delimited(std::istream& in, const std::string& path, const Reade
     if (ext == "tsv" || ext == "tab") {
       delimiter = '\t';
     } else {
-      std::string first;
-      std::getline(in, first);
+      std::string first;  // the header line, ended by LF, CR or CRLF
+      for (int c = in.get(); c != std::char_traits<char>::eof() && c != '\n' && c != '\r' && first.size() < (1u << 20);
+           c = in.get())
+        first += static_cast<char>(c);
       delimiter = sniff_delimiter(first);
       in.clear();
       in.seekg(0);

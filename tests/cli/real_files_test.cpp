@@ -142,5 +142,31 @@ TEST(RealFiles, NotScoredBreakdownNamesTheReasonThatPreventedScoring) {
   EXPECT_EQ(r.output.find("not scored (coord_decimal_comma"), std::string::npos) << r.output;
 }
 
+// Old Mac files end lines with a lone CR; databases and statistics packages write NA, null, NULL,
+// \N or - for a missing value (common practice: R's NA, SQL's NULL, MySQL's \N in its dumps).
+TEST(RealFiles, CrOnlyLineEndingsAndMissingValueMarkers) {
+  const auto dir = temp_dir("cr-and-markers");
+  write_file(dir + "/mac.csv", "occurrenceID,scientificName,decimalLongitude,decimalLatitude\r"
+                               "M1,Orophila nivicola,0.47831,0.6708\r"
+                               "M2,Orophila nivicola,NA,0.41779\r"
+                               "M3,Orophila nivicola,0.5125,null\r"
+                               "M4,Orophila nivicola,\\N,NULL\r"
+                               "M5,Orophila nivicola,-,0.61887\r");
+  auto r = run(envsift_binary() + " sample -q --points " + dir + "/mac.csv" + demo_layers() + " --out " + dir + "/out.csv");
+  ASSERT_EQ(r.exit_code, 0) << r.output;
+  const Table out = read_csv(dir + "/out.csv");
+  ASSERT_EQ(out.rows.size(), 5u);
+  EXPECT_EQ(out.header[1], "scientificName");
+  const std::size_t status = out.column("status");
+  EXPECT_EQ(out.rows[0][status], "ok");
+  for (std::size_t i = 1; i < 5; ++i) EXPECT_EQ(out.rows[i][status], "coord_missing") << out.rows[i][0];
+  EXPECT_EQ(out.rows[3][2], "\\N");  // the original text is kept
+
+  write_file(dir + "/values.csv", "occurrenceID,scientificName,t\nV1,Orophila nivicola,NA\nV2,Orophila nivicola,12.5\n");
+  r = run(envsift_binary() + " screen -q --single-taxon --points " + dir + "/values.csv --value-columns t --out " + dir + "/v.csv");
+  ASSERT_EQ(r.exit_code, 0) << r.output;
+  EXPECT_EQ(read_csv(dir + "/v.csv").rows[0][3].rfind("value_missing:t", 0), 0u);
+}
+
 }  // namespace
 }  // namespace envsift

@@ -23,8 +23,12 @@ struct ParsedNumber {
 // coord_not_finite; outside [-90, 90] / [-180, 180] → coord_out_of_range.
 ParsedNumber parse_coordinate(std::string_view text, Axis axis);
 
-// A plain decimal number (no range check). Empty text gives problem "empty".
+// A plain decimal number (no range check). Empty text, or a marker of a missing value, gives
+// problem "empty".
 ParsedNumber parse_number(std::string_view text);
+
+// What databases and statistics packages write for a missing value: NA, N/A, null, NULL, \N, -.
+bool is_missing_marker(std::string_view text);
 
 std::string_view trim(std::string_view text);
 

@@ -1,8 +1,8 @@
 // A streaming reader for delimited text. With RFC 4180 quoting, quoted fields may hold the
 // delimiter, doubled quotes and line breaks. Literal reading (what data-portal exports and Darwin
 // Core Archives use for tab-separated text) takes a quote as a character like any other: a
-// field is the text between delimiters and every line is a record. CRLF and LF both end a
-// record; a UTF-8 byte-order mark is skipped.
+// field is the text between delimiters and every line is a record. CRLF, LF and a lone CR (old Mac
+// files) end a record; a UTF-8 byte-order mark is skipped.
 #pragma once
 #include <cstddef>
 #include <istream>

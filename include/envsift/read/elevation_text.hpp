@@ -7,13 +7,17 @@ namespace envsift {
 
 struct ParsedElevation {
   double metres = 0;
-  bool present = false;   // false for an empty field
-  std::string problem;    // empty when usable, else a reason code (elevation_unreadable)
+  bool present = false;      // false for an empty field or a missing-value marker (NA, null, ...)
+  bool approximate = false;  // written with ca., c., ~, approx. or (approx.): read, and noted
+  std::string problem;       // empty when usable, else a reason code (elevation_unreadable, elevation_ambiguous)
 };
 
-// A number with an optional unit: m, metre(s), meter(s), masl, m a.s.l. (metres); ft, feet,
-// foot, ' (international feet, 1 ft = 0.3048 m exactly). Spaces between thousands are allowed.
-// Refused as ambiguous: a comma ("1,200" may be 1.2 or 1200), several numbers, unknown units.
+// A number with an optional unit: m, metre(s), meter(s), masl, m a.s.l. (metres); ft, ft., feet,
+// foot, ' or ′ (international feet, 1 ft = 0.3048 m exactly). Spaces between thousands are
+// allowed; an approximate marker before or after the number is read and noted. Refused as
+// ambiguous (elevation_ambiguous): a thousands separator that may be a decimal mark — "1,200"
+// and "1.200" are 1.2 in some locales and 1200 in others. Refused as unreadable: several
+// numbers, unknown units. The README's table lists every accepted form.
 ParsedElevation parse_elevation(std::string_view text);
 
 }  // namespace envsift
