@@ -49,8 +49,8 @@ void check_unique_columns(const std::vector<std::string>& columns) {
     for (std::size_t j = 0; j < i; ++j)
       if (columns[i] == columns[j])
         throw UsageError("the output would have two columns named '" + columns[i] +
-                         "' (an input column, a layer or an envsift column); rename the input column, or "
-                         "name the layer with NAME=PATH");
+                         "' (an input column, a layer or an envsift column); give envsift's columns a prefix with "
+                         "--column-prefix, name the layer with NAME=PATH, or rename the input column");
 }
 
 }  // namespace envsift

@@ -38,11 +38,19 @@ RunSummary merge_shards(const std::vector<std::string>& paths, const std::string
         throw InputError(paths[s], 1, "its columns differ from " + paths[0] + "'s", "merge the shards of one run only");
     }
   };
-  auto column = [&](const std::string& name) {
-    auto it = std::find(header.begin(), header.end(), name);
-    if (it == header.end())
-      throw InputError(paths[0], 1, "no '" + name + "' column: not an envsift screen output", "merge screen outputs");
-    return static_cast<std::size_t>(it - header.begin());
+  // envsift's columns: status, rank, score, flags, reasons in a row, after the input's (with the
+  // run's --column-prefix, whatever it was)
+  auto verdict_columns = [&]() {
+    for (std::size_t k = header.size(); k-- > 0;) {
+      const std::string& h = header[k];
+      if (h.size() < 6 || h.compare(h.size() - 6, 6, "status") != 0 || k + 4 >= header.size()) continue;
+      const std::string p = h.substr(0, h.size() - 6);
+      if (header[k + 1] == p + "rank" && header[k + 2] == p + "score" && header[k + 3] == p + "flags" &&
+          header[k + 4] == p + "reasons")
+        return k;
+    }
+    throw InputError(paths[0], 1, "no status, rank, score, flags and reasons columns: not an envsift screen output",
+                     "merge the outputs of envsift screen --shard I/N");
   };
   // Each row comes from the one shard that owns it; the others mark it other_shard.
   auto next_rows = [&](std::vector<std::string>& picked, std::size_t row_number, std::size_t status) {
@@ -71,7 +79,7 @@ RunSummary merge_shards(const std::vector<std::string>& paths, const std::string
   };
 
   open_all();
-  const std::size_t status = column("status"), rank = column("rank"), score = column("score"), flags = column("flags");
+  const std::size_t status = verdict_columns(), rank = status + 1, score = status + 2, flags = status + 3;
   // Pass 1: every row's score, to rank them as one run would.
   std::vector<std::optional<double>> scores;
   std::vector<std::string> row;

@@ -24,7 +24,7 @@ bool owned_by_this_shard(const ScreenSettings& s, const PointTable& points, std:
 }
 
 RecordTable read_and_sample(const ScreenSettings& s, const ActiveTests* tests) {
-  const auto added = added_columns(tests);
+  const auto added = added_columns(tests, s.outputs.column_prefix);
   if (!s.input.value_columns.empty()) {
     refuse_circular_layers(s.input.value_columns);
     return read_value_columns(s, added);

@@ -32,7 +32,7 @@ RunSummary run_sample(const ScreenSettings& s) {
   const RecordTable t = run::read_and_sample(s, nullptr);
   summary.seconds = t.seconds;
   summary.warnings = t.warnings;
-  const RunContext run{s, t, nullptr, record_header(t, nullptr), settings_as_written(sample_options(), s)};
+  const RunContext run{s, t, nullptr, record_header(t, nullptr, s.outputs.column_prefix), settings_as_written(sample_options(), s)};
   for (RecordSink* out : pointers(outputs)) out->begin(run);
   run::write_outputs(run, nullptr, pointers(outputs), summary);
   summary.seconds.emplace_back("total", started.seconds());
@@ -54,7 +54,7 @@ RunSummary run_screen(const ScreenSettings& s, const std::vector<RecordSink*>& e
   summary.seconds = t.seconds;
   clock.lap(summary.seconds, "sampling, total");
   const run::Membership membership = run::group_records(t, s);  // 3. group by taxon
-  const RunContext run{s, t, &tests, record_header(t, &tests), settings_as_written(all_screen_options(), s)};
+  const RunContext run{s, t, &tests, record_header(t, &tests, s.outputs.column_prefix), settings_as_written(all_screen_options(), s)};
   for (RecordSink* out : outputs) out->begin(run);
   const run::Judgement judgement = run::judge_records(t, tests, membership, s, outputs);  // 4-5. tests, scores
   clock.lap(summary.seconds, "screen");

@@ -159,6 +159,11 @@ const std::vector<OptionSpec>& screen_options() {
     v.push_back(switch_option("single-taxon", "treat the whole file as one taxon (no taxon column needed)",
                               [](ScreenSettings& s) -> bool& { return s.input.single_taxon; }));
     v.push_back(shard_option());
+    v.push_back(text_option("column-prefix", "P",
+                            "put P before every column envsift adds after the layers (status, rank, score, flags, "
+                            "reasons, each test's columns), for points that have a status or rank column of their own; "
+                            "layer columns are named with NAME=PATH",
+                            [](ScreenSettings& s) -> std::string& { return s.outputs.column_prefix; }));
     v.push_back(choice_option("order", "row order of the output: input order, or by rank (unscored records last)",
                               [](ScreenSettings& s) -> std::string& { return s.outputs.order; }, {"input", "rank"}));
     return v;

@@ -14,21 +14,21 @@ std::string join(const std::vector<std::string>& parts, const char* separator) {
 
 }  // namespace
 
-std::vector<std::string> added_columns(const ActiveTests* tests) {
-  std::vector<std::string> added{"status"};
+std::vector<std::string> added_columns(const ActiveTests* tests, const std::string& prefix) {
+  std::vector<std::string> added{prefix + "status"};
   if (!tests) return added;
-  for (const char* c : {"rank", "score", "flags", "reasons"}) added.push_back(c);
+  for (const char* c : {"rank", "score", "flags", "reasons"}) added.push_back(prefix + c);
   const auto extras = tests->extra_columns();
   const auto names = tests->names();
   for (std::size_t t = 0; t < names.size(); ++t) {
-    added.push_back(names[t] + "_stat");
-    added.push_back(names[t] + "_cutoff");
-    for (const auto& extra : extras[t]) added.push_back(names[t] + "_" + extra);
+    added.push_back(prefix + names[t] + "_stat");
+    added.push_back(prefix + names[t] + "_cutoff");
+    for (const auto& extra : extras[t]) added.push_back(prefix + names[t] + "_" + extra);
   }
   return added;
 }
 
-std::vector<std::string> record_header(const RecordTable& t, const ActiveTests* tests) {
+std::vector<std::string> record_header(const RecordTable& t, const ActiveTests* tests, const std::string& prefix) {
   std::vector<std::string> h = t.points.columns;
   if (!t.layers_are_columns)
     for (const auto& l : t.layers) {
@@ -36,7 +36,7 @@ std::vector<std::string> record_header(const RecordTable& t, const ActiveTests* 
       if (t.has_discs)
         for (const char* s : {"_min", "_mean", "_max"}) h.push_back(l.spec.name + s);
     }
-  const auto added = added_columns(tests);
+  const auto added = added_columns(tests, prefix);
   h.insert(h.end(), added.begin(), added.end());
   return h;
 }

@@ -168,5 +168,33 @@ TEST(RealFiles, CrOnlyLineEndingsAndMissingValueMarkers) {
   EXPECT_EQ(read_csv(dir + "/v.csv").rows[0][3].rfind("value_missing:t", 0), 0u);
 }
 
+// A file with its own `status` and `rank` columns (a collection database's export): refused with
+// the way out, then screened with --column-prefix; shards of it merge into the single run.
+TEST(RealFiles, InputColumnsNamedLikeEnvsiftsGetAPrefixedOutput) {
+  const auto dir = temp_dir("column-prefix");
+  run("awk -F, 'BEGIN{OFS=\",\"} NR==1{print $0,\"status\",\"rank\"; next} {print $0,\"checked\",NR}' " +
+      source_path("demo-points/occurrences.csv") + " > " + dir + "/own.csv");
+  const std::string base = envsift_binary() + " screen -q --points " + dir + "/own.csv" + demo_layers();
+  auto r = run(base + " --out " + dir + "/refused.csv");
+  EXPECT_EQ(r.exit_code, 2) << r.output;
+  EXPECT_NE(r.output.find("two columns named 'status'"), std::string::npos) << r.output;
+  EXPECT_NE(r.output.find("--column-prefix"), std::string::npos) << r.output;
+
+  r = run(base + " --column-prefix envsift_ --gis " + dir + "/all.geojson --out " + dir + "/single.csv");
+  ASSERT_EQ(r.exit_code, 0) << r.output;
+  const Table out = read_csv(dir + "/single.csv");
+  EXPECT_EQ(out.rows[0][out.column("status")], "checked");  // the input's own, untouched
+  EXPECT_EQ(out.rows[0][out.column("envsift_status")], "ok");
+  EXPECT_FALSE(out.rows[0][out.column("envsift_rank")].empty());
+  out.column("envsift_robust_z_stat");
+  EXPECT_NE(read_file(dir + "/all.geojson").find("\"envsift_rank\": "), std::string::npos);  // an integer field
+
+  for (const char* i : {"0", "1"})
+    ASSERT_EQ(run(base + " --column-prefix envsift_ --shard " + i + "/2 --out " + dir + "/shard" + i + ".csv").exit_code, 0);
+  r = run(envsift_binary() + " merge " + dir + "/shard0.csv " + dir + "/shard1.csv --out " + dir + "/merged.csv");
+  ASSERT_EQ(r.exit_code, 0) << r.output;
+  EXPECT_TRUE(read_file(dir + "/merged.csv") == read_file(dir + "/single.csv"));
+}
+
 }  // namespace
 }  // namespace envsift

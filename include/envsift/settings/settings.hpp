@@ -62,6 +62,7 @@ struct OutputSettings {
   std::string manifest;           // run manifest (JSON)
   std::size_t report_taxa = 100;  // taxon sections drawn in the report at most
   std::string order = "input";    // input | rank
+  std::string column_prefix;      // before every column envsift adds after the layers
   // Taxon shards: screen only the taxa whose stable hash modulo `shard_count` is `shard_index`.
   std::size_t shard_index = 0, shard_count = 1;
 };

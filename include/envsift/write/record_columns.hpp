@@ -9,9 +9,10 @@
 
 namespace envsift {
 
-// The columns envsift appends after the layers' (status, and for a screen its verdict's).
-std::vector<std::string> added_columns(const ActiveTests* tests);
-std::vector<std::string> record_header(const RecordTable& table, const ActiveTests* tests);
+// The columns envsift appends after the layers' (status, and for a screen its verdict's), each
+// with `prefix` in front (--column-prefix: for inputs that have a `status` or `rank` of their own).
+std::vector<std::string> added_columns(const ActiveTests* tests, const std::string& prefix = "");
+std::vector<std::string> record_header(const RecordTable& table, const ActiveTests* tests, const std::string& prefix = "");
 std::vector<std::string> record_row(const RecordTable& table, const RecordOutcome& outcome);
 
 }  // namespace envsift

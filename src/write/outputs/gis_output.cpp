@@ -14,9 +14,10 @@ class GisOutput : public RecordSink {
     // originals and words are text; sampled values and statistics are numbers; rank an integer
     std::vector<FieldKind> kinds(run.header.size(), FieldKind::real);
     for (std::size_t c = 0; c < run.table.points.columns.size(); ++c) kinds[c] = FieldKind::text;
-    for (std::size_t c = 0; c < run.header.size(); ++c) {
-      if (run.header[c] == "status" || run.header[c] == "flags" || run.header[c] == "reasons") kinds[c] = FieldKind::text;
-      if (run.header[c] == "rank") kinds[c] = FieldKind::integer;
+    const std::string& p = run.settings.outputs.column_prefix;
+    for (std::size_t c = run.table.points.columns.size(); c < run.header.size(); ++c) {
+      if (run.header[c] == p + "status" || run.header[c] == p + "flags" || run.header[c] == p + "reasons") kinds[c] = FieldKind::text;
+      if (run.header[c] == p + "rank") kinds[c] = FieldKind::integer;
     }
     out_ = std::make_unique<GisWriter>(path_, run.header, kinds);
   }
