@@ -15,6 +15,9 @@ bool CsvReader::next(std::vector<std::string>& fields, std::size_t& line) {
   if (at_start_) {
     at_start_ = false;
     const int first = peek();
+    if (first == 0x1F)  // gzip's first byte; a file is detected by its bytes before this, a pipe cannot be
+      throw InputError(source_, 1, "the input is gzip-compressed",
+                       "give the .gz file itself as --points (any name), or decompress it: zcat FILE | envsift ... --points -");
     if (first == 0xFF || first == 0xFE)  // a UTF-16 byte-order mark (FF FE or FE FF)
       throw InputError(source_, 1, "the file is UTF-16, not UTF-8 text",
                        "save it as UTF-8 (or CSV UTF-8) and run again");

@@ -1,5 +1,6 @@
 #include "envsift/read/point_reader.hpp"
 #include "envsift/stable_hash.hpp"
+#include "vsi_stream.hpp"
 
 #include <algorithm>
 #include <cctype>
@@ -326,17 +327,18 @@ bool is_delimited_text(const std::string& path) {
 }
 
 PointTable read_points(const std::string& path, const ReaderOptions& options) {
-  if (!is_delimited_text(path)) {
+  std::error_code ec;
+  if (path != "-" && std::filesystem::is_directory(path, ec))
+    throw InputError(path, "is not a file (a directory?)", "give the path of the points file itself");
+  const detail::TextSource source = detail::locate_text(path);  // plain, gzip, one file in a zip, stdin
+  if (!source.text) {
     PointTable t = read_vector(path, options);
     mark_duplicate_ids(t);  // every record sharing an ID is kept and marked
     return t;
   }
-  std::error_code ec;
-  if (std::filesystem::exists(path, ec) && !std::filesystem::is_regular_file(path, ec))
-    throw InputError(path, "is not a file (a directory?)", "give the path of the points file itself");
-  std::ifstream in(path, std::ios::binary);
-  if (!in) throw InputError(path, "cannot open the points file", "check the path and its read permission");
-  return read_points_from_text(in, path, options);
+  detail::VsiInput in(source.vsi_path);
+  if (!in) throw InputError(source.name, "cannot open the points file", "check the path and its read permission");
+  return read_points_from_text(in, source.name, options);
 }
 
 }  // namespace envsift

@@ -40,6 +40,7 @@ std::string sha256_of_file(const std::string& path) {
 namespace {
 
 nlohmann::json file_entry(const std::string& path) {
+  if (path == "-") return {{"path", "-"}, {"bytes", nullptr}, {"sha256", nullptr}};  // standard input: read once, not kept
   std::error_code ec;
   const auto size = std::filesystem::file_size(path, ec);
   return {{"path", path}, {"bytes", ec ? 0 : size}, {"sha256", sha256_of_file(path)}};
