@@ -13,6 +13,7 @@
 #include <unordered_map>
 
 #include <gdal_priv.h>
+#include <ogr_spatialref.h>
 #include <ogrsf_frmts.h>
 
 #include "envsift/errors.hpp"
@@ -98,7 +99,12 @@ ColumnIndex locate_columns(const PointTable& table, const ReaderOptions& o) {
 // stores the original fields on disk.
 class TableBuilder {
  public:
-  TableBuilder(PointTable& table, const ColumnIndex& ix) : t_(table), ix_(ix) {}
+  // `to_wgs84`: the coordinate columns are in another CRS (--points-crs); null for lon/lat.
+  TableBuilder(PointTable& table, const ColumnIndex& ix, OGRCoordinateTransformation* to_wgs84 = nullptr)
+      : t_(table), ix_(ix), to_wgs84_(to_wgs84) {}
+
+  // Records whose coordinates are out of range for degrees but look like metres.
+  std::size_t metre_like() const { return metre_like_; }
 
   void add(std::vector<std::string>& fields, std::size_t line, std::vector<std::string> problems) {
     Occurrence r;
@@ -107,9 +113,14 @@ class TableBuilder {
       problems.push_back(reason::ragged_row);
       fields.resize(t_.columns.size());  // keeps columns aligned in every output
     }
-    if (ix_.longitude && ix_.latitude) {
+    if (ix_.longitude && ix_.latitude && to_wgs84_) {
+      projected(fields[*ix_.longitude], fields[*ix_.latitude], r, problems);
+    } else if (ix_.longitude && ix_.latitude) {
       auto lon = parse_coordinate(fields[*ix_.longitude], Axis::longitude);
       auto lat = parse_coordinate(fields[*ix_.latitude], Axis::latitude);
+      if ((lon.problem == reason::coord_out_of_range || lat.problem == reason::coord_out_of_range) &&
+          (std::fabs(lon.value) > 1000 || std::fabs(lat.value) > 1000))
+        ++metre_like_;
       for (const auto* p : {&lon, &lat})
         for (const auto* code : {&p->problem, &p->note})
           if (!code->empty() && std::find(problems.begin(), problems.end(), *code) == problems.end())
@@ -134,6 +145,25 @@ class TableBuilder {
   }
 
  private:
+  // Coordinates in the CRS of --points-crs: plain numbers, transformed to WGS 84 lon/lat.
+  void projected(const std::string& x_text, const std::string& y_text, Occurrence& r, std::vector<std::string>& problems) {
+    const ParsedNumber x = parse_number(x_text), y = parse_number(y_text);
+    for (const auto* p : {&x, &y})
+      if (!p->problem.empty()) {
+        const std::string code = p->problem == "empty" ? reason::coord_missing : p->problem;
+        if (std::find(problems.begin(), problems.end(), code) == problems.end()) problems.push_back(code);
+      }
+    if (!x.problem.empty() || !y.problem.empty()) return;
+    double lon = x.value, lat = y.value;
+    if (!to_wgs84_->Transform(1, &lon, &lat) || !std::isfinite(lon) || !std::isfinite(lat) || std::fabs(lat) > 90 ||
+        std::fabs(lon) > 180) {
+      problems.push_back(reason::coord_out_of_range);  // outside the area the CRS can be transformed from
+      return;
+    }
+    r.longitude = lon, r.latitude = lat;
+  }
+
+ private:
   static std::uint64_t id_hash(const std::string& id) {  // FNV-1a, never 0
     const std::uint64_t h = stable_hash(id);
     return h ? h : 1;
@@ -155,8 +185,25 @@ class TableBuilder {
 
   PointTable& t_;
   const ColumnIndex& ix_;
+  OGRCoordinateTransformation* to_wgs84_;
+  std::size_t metre_like_ = 0;
   std::unordered_map<std::string, std::uint32_t> taxon_index_, problem_index_;
 };
+
+// WGS 84 lon/lat from the CRS of --points-crs (anything GDAL/PROJ reads: EPSG:32631, WKT, a .prj
+// file); null when the coordinates are lon/lat already.
+std::unique_ptr<OGRCoordinateTransformation> points_crs_transformation(const std::string& crs) {
+  if (crs.empty()) return nullptr;
+  OGRSpatialReference from, to;
+  if (from.SetFromUserInput(crs.c_str()) != OGRERR_NONE)
+    throw UsageError("--points-crs " + crs + " is not a CRS GDAL/PROJ knows; give e.g. EPSG:32631, a WKT string or a .prj file");
+  from.SetAxisMappingStrategy(OAMS_TRADITIONAL_GIS_ORDER);  // x = easting (longitude column), y = northing
+  to.SetWellKnownGeogCS("WGS84");
+  to.SetAxisMappingStrategy(OAMS_TRADITIONAL_GIS_ORDER);
+  std::unique_ptr<OGRCoordinateTransformation> t(OGRCreateCoordinateTransformation(&from, &to));
+  if (!t) throw UsageError("--points-crs " + crs + ": no transformation to WGS 84 is known; check the CRS");
+  return t;
+}
 
 PointTable read_delimited(std::istream& in, const std::string& path, const ReaderOptions& o) {
   char delimiter = o.delimiter;
@@ -190,7 +237,8 @@ PointTable read_delimited(std::istream& in, const std::string& path, const Reade
   }
   const ColumnIndex ix = locate_columns(table, o);
   table.uncertainty_column = ix.uncertainty;
-  TableBuilder builder(table, ix);
+  const auto to_wgs84 = points_crs_transformation(o.points_crs);
+  TableBuilder builder(table, ix, to_wgs84.get());
   std::vector<std::string> fields;
   std::vector<std::string> spanning;  // "5-7": the lines of records that span several
   std::size_t spans = 0;
@@ -210,6 +258,10 @@ PointTable read_delimited(std::istream& in, const std::string& path, const Reade
     }
     builder.add(fields, line, codes);
   }
+  if (!to_wgs84 && builder.metre_like() * 2 > table.records.size())
+    table.warnings.push_back(path + ": " + std::to_string(builder.metre_like()) + " of " + std::to_string(table.records.size()) +
+                             " records have coordinates out of range for degrees that look like metres: if the file "
+                             "holds projected coordinates, give their CRS with --points-crs (e.g. EPSG:32631)");
   if (spans > 0) {
     std::string lines;
     for (const auto& l : spanning) lines += (lines.empty() ? "" : ", ") + l;

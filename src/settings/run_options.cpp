@@ -98,6 +98,11 @@ const std::vector<OptionSpec>& input_options() {
                               "as RFC 4180 (a quoted field may hold the delimiter and line breaks); or rfc4180 | literal",
                               [](ScreenSettings& s) -> std::string& { return s.input.reader.quoting; },
                               {"auto", "rfc4180", "literal"}));
+    v.push_back(text_option("points-crs", "CRS",
+                            "the CRS of a text file's coordinate columns when they are not WGS 84 degrees, e.g. "
+                            "EPSG:32631 (UTM metres: x in the longitude column, y in the latitude column); any CRS "
+                            "GDAL/PROJ knows, as EPSG:N, WKT or a .prj file. The points are transformed to WGS 84",
+                            [](ScreenSettings& s) -> std::string& { return s.input.reader.points_crs; }));
     v.push_back(text_option("points-layer", "NAME", "layer of a multi-layer GeoPackage (default: the first)",
                             [](ScreenSettings& s) -> std::string& { return s.input.reader.vector_layer; }));
     v.push_back(text_option("assume-crs", "CRS",

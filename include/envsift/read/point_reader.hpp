@@ -25,6 +25,9 @@ struct ReaderOptions {
   // auto: tab-separated text is read literally (a quote is a character, as in data-portal exports
   // and Darwin Core Archives), other delimiters with RFC 4180 quoting; or rfc4180 | literal.
   std::string quoting = "auto";
+  // The CRS of the coordinate columns of a text file (EPSG:32631, WKT, a .prj file): x in the
+  // longitude column, y in the latitude column, transformed to WGS 84. Empty: lon/lat degrees.
+  std::string points_crs;
   bool require_taxon = false;  // screening needs a taxon column; sampling does not
   std::string vector_layer;    // layer of a multi-layer vector source; empty = the first
   bool coordinates_optional = false;  // screening pre-sampled values: coordinates are not needed
