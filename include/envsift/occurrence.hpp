@@ -30,7 +30,8 @@ struct PointTable {
   std::vector<std::string> columns;  // original column names, in order
   std::vector<Occurrence> records;   // in input order
   FieldStore fields;                 // original fields of each record, untouched (padded if ragged)
-  std::vector<std::string> taxa{""};                   // taxon names, each once
+  std::vector<std::string> taxa{""};                   // taxon names (NFC, whitespace folded), each once
+  std::vector<std::string> similar_names;              // per taxon: names that look like it ("a; b"), or ""
   std::vector<std::vector<std::string>> problem_sets{{}};  // reason codes found while reading
   std::optional<std::size_t> uncertainty_column;       // index in `columns`, when the file has one
   std::vector<std::string> warnings;                   // e.g. records that span several lines

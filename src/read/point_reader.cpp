@@ -20,6 +20,7 @@
 #include "gdal_init.hpp"
 #include "envsift/read/coordinates.hpp"
 #include "envsift/read/csv_reader.hpp"
+#include "envsift/read/taxon_names.hpp"
 #include "envsift/read/text_encoding.hpp"
 #include "envsift/reason_codes.hpp"
 
@@ -133,7 +134,7 @@ class TableBuilder {
       }
     }
     if (ix_.id && !fields[*ix_.id].empty()) r.id_hash = id_hash(fields[*ix_.id]);
-    if (ix_.taxon) r.taxon = intern_taxon(std::string(trim(fields[*ix_.taxon])));
+    if (ix_.taxon) r.taxon = intern_taxon(normalise_taxon_name(fields[*ix_.taxon]));
     if (ix_.uncertainty) {
       auto u = parse_number(fields[*ix_.uncertainty]);
       if (u.problem.empty() && u.value >= 0) r.uncertainty_m = u.value;
@@ -365,11 +366,42 @@ void mark_duplicate_ids(PointTable& t) {
   }
 }
 
+// Taxon names that look like one (letter case, authorship) are screened apart and listed together.
+void list_lookalike_names(PointTable& t) {
+  const auto groups = names_that_look_alike(t.taxa);
+  t.similar_names.assign(t.taxa.size(), "");
+  if (groups.empty()) return;
+  std::unordered_map<std::string, std::size_t> index;
+  for (std::size_t i = 0; i < t.taxa.size(); ++i) index[t.taxa[i]] = i;
+  std::string shown;
+  for (std::size_t g = 0; g < groups.size(); ++g) {
+    std::string all;
+    for (const auto& name : groups[g]) all += (all.empty() ? "'" : "', '") + name;
+    if (g < 5) shown += (shown.empty() ? "" : "; ") + all + "'";
+    for (const auto& name : groups[g]) {
+      std::string others;
+      for (const auto& other : groups[g])
+        if (other != name) others += (others.empty() ? "" : "; ") + other;
+      t.similar_names[index[name]] = others;
+    }
+  }
+  t.warnings.push_back(t.source + ": " + std::to_string(groups.size()) +
+                       " group(s) of taxon names look like one taxon (they differ only by letter case or an "
+                       "authorship) and are screened apart: " + shown + (groups.size() > 5 ? "; ..." : "") +
+                       "; if they are one taxon, write them alike in the source (the summary's similar_names lists them)");
+}
+
+// What every points table gets once read: duplicate IDs marked, look-alike names listed.
+void finish_table(PointTable& t) {
+  mark_duplicate_ids(t);  // every record sharing an ID is kept and marked
+  list_lookalike_names(t);
+}
+
 }  // namespace
 
 PointTable read_points_from_text(std::istream& in, const std::string& source_name, const ReaderOptions& options) {
   PointTable t = read_delimited(in, source_name, options);
-  mark_duplicate_ids(t);
+  finish_table(t);
   return t;
 }
 
@@ -385,7 +417,7 @@ PointTable read_points(const std::string& path, const ReaderOptions& options) {
   const detail::TextSource source = detail::locate_text(path);  // plain, gzip, one file in a zip, stdin
   if (!source.text) {
     PointTable t = read_vector(path, options);
-    mark_duplicate_ids(t);  // every record sharing an ID is kept and marked
+    finish_table(t);
     return t;
   }
   detail::VsiInput in(source.vsi_path);

@@ -14,11 +14,13 @@ std::vector<std::string> taxon_summary_header(const std::vector<std::string>& te
   if (with_band)
     for (const char* c : {"elevation_median", "elevation_band_low", "elevation_band_high", "outside_elevation_band"})
       header.push_back(c);
+  header.push_back("similar_names");
   return header;
 }
 
 std::vector<std::string> taxon_summary_row(const JudgedTaxon& t, const std::vector<Verdict>& verdicts,
-                                           const std::vector<std::string>& test_names, const ElevationBand* band) {
+                                           const std::vector<std::string>& test_names, const ElevationBand* band,
+                                           const std::string& similar_names) {
   std::size_t scored = 0, flagged = 0;
   std::vector<std::size_t> per_test(test_names.size(), 0);
   for (const Verdict& v : verdicts) {
@@ -44,6 +46,7 @@ std::vector<std::string> taxon_summary_row(const JudgedTaxon& t, const std::vect
     row.push_back(format_statistic(high));
     row.push_back(std::isfinite(low) ? std::to_string(outside) : "");
   }
+  row.push_back(similar_names);
   return row;
 }
 

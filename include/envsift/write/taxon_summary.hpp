@@ -19,8 +19,10 @@ struct ElevationBand {
 
 std::vector<std::string> taxon_summary_header(const std::vector<std::string>& test_names, bool with_band);
 
-// `verdicts[r]`: the verdict on the taxon's r-th record.
+// `verdicts[r]`: the verdict on the taxon's r-th record; `similar_names`: other names in the file
+// that look like this one (read/taxon_names.hpp), "; "-separated.
 std::vector<std::string> taxon_summary_row(const JudgedTaxon& taxon, const std::vector<Verdict>& verdicts,
-                                           const std::vector<std::string>& test_names, const ElevationBand* band);
+                                           const std::vector<std::string>& test_names, const ElevationBand* band,
+                                           const std::string& similar_names = "");
 
 }  // namespace envsift

@@ -28,9 +28,14 @@ class SummaryOutput : public RecordSink {
       band_ = ElevationBand{&low_, &high_, &point_, run.settings.tests.z_cutoff};
     }
     out_.row(taxon_summary_header(names_, band_.has_value()));
+    const auto& p = run.table.points;
+    for (std::size_t k = 0; k < p.taxa.size() && k < p.similar_names.size(); ++k)
+      if (!p.similar_names[k].empty()) similar_[p.taxa[k]] = p.similar_names[k];
   }
   void taxon(const JudgedTaxon& taxon, const std::vector<Verdict>& verdicts) override {
-    auto row = taxon_summary_row(taxon, verdicts, names_, band_ ? &*band_ : nullptr);
+    const auto similar = similar_.find(taxon.taxon);
+    auto row = taxon_summary_row(taxon, verdicts, names_, band_ ? &*band_ : nullptr,
+                                 similar == similar_.end() ? std::string() : similar->second);
     std::lock_guard<std::mutex> guard(lock_);
     rows_[taxon.index] = std::move(row);
   }
@@ -48,6 +53,7 @@ class SummaryOutput : public RecordSink {
   std::optional<ElevationBand> band_;
   std::mutex lock_;
   std::map<std::size_t, std::vector<std::string>> rows_;
+  std::map<std::string, std::string> similar_;  // taxon → names that look like it
 };
 
 }  // namespace
