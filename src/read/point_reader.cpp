@@ -20,6 +20,7 @@
 #include "gdal_init.hpp"
 #include "envsift/read/coordinates.hpp"
 #include "envsift/read/csv_reader.hpp"
+#include "envsift/read/darwin_core_archive.hpp"
 #include "envsift/read/taxon_names.hpp"
 #include "envsift/read/text_encoding.hpp"
 #include "envsift/reason_codes.hpp"
@@ -206,8 +207,10 @@ std::unique_ptr<OGRCoordinateTransformation> points_crs_transformation(const std
   return t;
 }
 
-PointTable read_delimited(std::istream& in, const std::string& path, const ReaderOptions& o) {
-  char delimiter = o.delimiter;
+// `archive`: the text is a Darwin Core Archive's core, laid out as its meta.xml says.
+PointTable read_delimited(std::istream& in, const std::string& path, const ReaderOptions& o,
+                          const ArchiveCore* archive = nullptr) {
+  char delimiter = archive ? archive->delimiter : o.delimiter;
   if (!delimiter) {
     auto ext = extension(path);
     if (ext == "tsv" || ext == "tab") {
@@ -224,12 +227,20 @@ PointTable read_delimited(std::istream& in, const std::string& path, const Reade
   }
   PointTable table;
   table.source = path;
-  const Quoting quoting = o.quoting == "literal" || (o.quoting == "auto" && delimiter == '\t') ? Quoting::literal
-                                                                                                : Quoting::rfc4180;
+  Quoting quoting = o.quoting == "literal" || (o.quoting == "auto" && delimiter == '\t') ? Quoting::literal
+                                                                                          : Quoting::rfc4180;
+  if (archive && o.quoting == "auto") quoting = archive->quoted ? Quoting::rfc4180 : Quoting::literal;
   CsvReader reader(in, delimiter, path, quoting);
   std::size_t line = 0;
-  if (!reader.next(table.columns, line))
+  if (archive) {
+    std::vector<std::string> skipped;
+    for (std::size_t k = 0; k < archive->header_lines; ++k) reader.next(skipped, line);
+    table.columns = archive->columns;
+    for (const auto& [term, value] : archive->defaults) table.columns.push_back(term);
+    table.warnings = archive->notes;
+  } else if (!reader.next(table.columns, line)) {
     throw InputError(path, 1, "the file is empty", "give a file with a header line and one record per line");
+  }
   if (!table.columns.empty() && !table.columns.back().empty() && table.columns.back().back() == '\r')
     table.columns.back().pop_back();
   for (auto& c : table.columns) {
@@ -253,6 +264,12 @@ PointTable read_delimited(std::istream& in, const std::string& path, const Reade
       converted = converted || changed;
     }
     if (converted) codes.push_back(reason::latin1_converted);
+    if (archive && !archive->defaults.empty()) {  // fields given only a default value in meta.xml
+      const std::size_t core = archive->columns.size();
+      if (fields.size() != core) codes.push_back(reason::ragged_row);
+      fields.resize(core);
+      for (const auto& [term, value] : archive->defaults) fields.push_back(value);
+    }
     if (reader.last_line() > line) {  // never merged without a word: the code, and the lines in a warning
       codes.push_back(reason::spans_lines);
       if (spans++ < 10) spanning.push_back(std::to_string(line) + "-" + std::to_string(reader.last_line()));
@@ -412,8 +429,16 @@ bool is_delimited_text(const std::string& path) {
 
 PointTable read_points(const std::string& path, const ReaderOptions& options) {
   std::error_code ec;
-  if (path != "-" && std::filesystem::is_directory(path, ec))
-    throw InputError(path, "is not a file (a directory?)", "give the path of the points file itself");
+  if (path != "-" && std::filesystem::is_directory(path, ec) && !std::filesystem::exists(path + "/meta.xml", ec))
+    throw InputError(path, "is not a file (a directory?)", "give the path of the points file itself, or of a Darwin Core Archive folder");
+  if (path != "-")
+    if (const auto core = read_archive_meta(path)) {  // a Darwin Core Archive (zip or folder)
+      detail::VsiInput in(core->vsi_path);
+      if (!in) throw InputError(core->name, "cannot open the archive's core file", "check the archive");
+      PointTable t = read_delimited(in, core->name, options, &*core);
+      finish_table(t);
+      return t;
+    }
   const detail::TextSource source = detail::locate_text(path);  // plain, gzip, one file in a zip, stdin
   if (!source.text) {
     PointTable t = read_vector(path, options);

@@ -1,0 +1,106 @@
+#include "envsift/read/darwin_core_archive.hpp"
+
+#include <memory>
+
+#include <cpl_minixml.h>
+#include <cpl_vsi.h>
+
+#include "envsift/errors.hpp"
+
+namespace envsift {
+namespace {
+
+std::string read_all(const std::string& vsi_path) {
+  VSILFILE* f = VSIFOpenL(vsi_path.c_str(), "rb");
+  if (!f) return "";
+  std::string text;
+  char buf[65536];
+  for (std::size_t got; (got = VSIFReadL(buf, 1, sizeof buf, f)) > 0;) text.append(buf, got);
+  VSIFCloseL(f);
+  return text;
+}
+
+// "\t" (as the Text Guide writes it in attributes), "\\t", a real tab, "," ...
+char terminator(std::string value, const std::string& meta) {
+  if (value == "\\t" || value == "\t" || value.empty()) return '\t';
+  if (value.size() == 1) return value[0];
+  throw InputError(meta, "fieldsTerminatedBy '" + value + "' is not one character", "give the archive's core as a plain file");
+}
+
+// The term's name: the last part of its URI (http://rs.tdwg.org/dwc/terms/decimalLatitude).
+std::string term_name(const std::string& uri) {
+  const auto cut = uri.find_last_of("/#");
+  return cut == std::string::npos ? uri : uri.substr(cut + 1);
+}
+
+}  // namespace
+
+std::optional<ArchiveCore> read_archive_meta(const std::string& path) {
+  VSIStatBufL st;
+  if (VSIStatL(path.c_str(), &st) != 0) return std::nullopt;
+  std::string root;
+  if (VSI_ISDIR(st.st_mode)) {
+    root = path;
+  } else {
+    char magic[4] = {};
+    VSILFILE* f = VSIFOpenL(path.c_str(), "rb");
+    if (!f) return std::nullopt;
+    const std::size_t got = VSIFReadL(magic, 1, 4, f);
+    VSIFCloseL(f);
+    if (got != 4 || std::string(magic, 4) != std::string("PK\x03\x04", 4)) return std::nullopt;
+    root = "/vsizip/" + path;
+  }
+  const std::string meta_path = root + "/meta.xml", meta_name = path + "/meta.xml";
+  const std::string xml = read_all(meta_path);
+  if (xml.empty()) return std::nullopt;  // a zip or folder, but not an archive
+
+  std::unique_ptr<CPLXMLNode, decltype(&CPLDestroyXMLNode)> doc(CPLParseXMLString(xml.c_str()), CPLDestroyXMLNode);
+  CPLXMLNode* archive = doc ? CPLGetXMLNode(doc.get(), "=archive") : nullptr;
+  CPLXMLNode* core = archive ? CPLGetXMLNode(archive, "core") : nullptr;
+  if (!core) throw InputError(meta_name, "has no <archive><core> element", "check that the archive follows the Darwin Core Text Guide");
+  ArchiveCore c;
+  const std::string location = CPLGetXMLValue(core, "files.location", "");
+  if (location.empty()) throw InputError(meta_name, "the core names no data file (<files><location>)", "check the archive");
+  c.vsi_path = root + "/" + location;
+  c.name = path + "/" + location;
+  c.delimiter = terminator(CPLGetXMLValue(core, "fieldsTerminatedBy", ","), meta_name);
+  c.quoted = std::string(CPLGetXMLValue(core, "fieldsEnclosedBy", "\"")) == "\"";  // the Text Guide's defaults
+  c.header_lines = static_cast<std::size_t>(std::atoi(CPLGetXMLValue(core, "ignoreHeaderLines", "0")));
+  const std::string encoding = CPLGetXMLValue(core, "encoding", "UTF-8");
+  if (encoding != "UTF-8" && encoding != "utf-8" && encoding != "UTF8")
+    c.notes.push_back(c.name + ": meta.xml declares the encoding " + encoding +
+                      "; bytes that are not UTF-8 are read as Latin-1 (latin1_converted)");
+  int id_index = -1;
+  for (CPLXMLNode* n = core->psChild; n; n = n->psNext) {
+    if (n->eType != CXT_Element) continue;
+    const std::string tag = n->pszValue;
+    if (tag == "id" || tag == "coreid") id_index = std::atoi(CPLGetXMLValue(n, "index", "-1"));
+    if (tag != "field") continue;
+    const std::string term = term_name(CPLGetXMLValue(n, "term", ""));
+    const char* index = CPLGetXMLValue(n, "index", nullptr);
+    if (term.empty()) throw InputError(meta_name, "a <field> without a term", "check the archive");
+    if (!index) {
+      c.defaults.emplace_back(term, CPLGetXMLValue(n, "default", ""));
+      continue;
+    }
+    const auto i = static_cast<std::size_t>(std::atoi(index));
+    if (c.columns.size() <= i) c.columns.resize(i + 1);
+    c.columns[i] = term;
+  }
+  if (id_index >= 0) {
+    if (c.columns.size() <= static_cast<std::size_t>(id_index)) c.columns.resize(static_cast<std::size_t>(id_index) + 1);
+    if (c.columns[static_cast<std::size_t>(id_index)].empty()) c.columns[static_cast<std::size_t>(id_index)] = "id";
+  }
+  for (std::size_t i = 0; i < c.columns.size(); ++i)
+    if (c.columns[i].empty()) c.columns[i] = "column_" + std::to_string(i);
+  if (c.columns.empty()) throw InputError(meta_name, "the core declares no fields", "check the archive");
+  std::size_t extensions = 0;
+  for (CPLXMLNode* n = archive->psChild; n; n = n->psNext)
+    extensions += n->eType == CXT_Element && std::string(n->pszValue) == "extension";
+  if (extensions)
+    c.notes.push_back(path + ": " + std::to_string(extensions) + " extension file(s) of the archive are not read (only its core, " +
+                      location + ")");
+  return c;
+}
+
+}  // namespace envsift

@@ -1,0 +1,92 @@
+// Darwin Core Archives as the TDWG Darwin Core Text Guide describes them: meta.xml names the core
+// file, its terminators, quote character, header lines and each field's term URI; a field may
+// have only a default value. The archive (zip written through GDAL's /vsizip/, and the same as a
+// folder) must screen like the demo CSV, byte for byte in the columns envsift computes.
+#include <cpl_vsi.h>
+#include <gtest/gtest.h>
+
+#include "../support.hpp"
+
+namespace envsift {
+namespace {
+
+using namespace envsift::testing;
+
+const char* kMeta =
+    "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n"
+    "<archive xmlns=\"http://rs.tdwg.org/dwc/text/\" metadata=\"eml.xml\">\n"
+    "  <core encoding=\"UTF-8\" fieldsTerminatedBy=\"\\t\" linesTerminatedBy=\"\\n\" fieldsEnclosedBy=\"\"\n"
+    "        ignoreHeaderLines=\"1\" rowType=\"http://rs.tdwg.org/dwc/terms/Occurrence\">\n"
+    "    <files><location>occurrence.txt</location></files>\n"
+    "    <id index=\"0\"/>\n"
+    "    <field index=\"0\" term=\"http://rs.tdwg.org/dwc/terms/occurrenceID\"/>\n"
+    "    <field index=\"1\" term=\"http://rs.tdwg.org/dwc/terms/scientificName\"/>\n"
+    "    <field index=\"2\" term=\"http://rs.tdwg.org/dwc/terms/decimalLongitude\"/>\n"
+    "    <field index=\"3\" term=\"http://rs.tdwg.org/dwc/terms/decimalLatitude\"/>\n"
+    "    <field index=\"4\" term=\"http://rs.tdwg.org/dwc/terms/coordinateUncertaintyInMeters\"/>\n"
+    "    <field index=\"5\" term=\"http://rs.tdwg.org/dwc/terms/minimumElevationInMeters\"/>\n"
+    "    <field index=\"6\" term=\"http://rs.tdwg.org/dwc/terms/locality\"/>\n"
+    "    <field term=\"http://rs.tdwg.org/dwc/terms/countryCode\" default=\"QM\"/>\n"
+    "  </core>\n"
+    "  <extension encoding=\"UTF-8\" fieldsTerminatedBy=\"\\t\" linesTerminatedBy=\"\\n\" fieldsEnclosedBy=\"\"\n"
+    "             ignoreHeaderLines=\"1\" rowType=\"http://rs.gbif.org/terms/1.0/Multimedia\">\n"
+    "    <files><location>multimedia.txt</location></files>\n"
+    "    <coreid index=\"0\"/>\n"
+    "  </extension>\n"
+    "</archive>\n";
+
+void write_member(const std::string& path, const std::string& content) {
+  VSILFILE* f = VSIFOpenL(path.c_str(), "wb");
+  ASSERT_NE(f, nullptr) << path;
+  VSIFWriteL(content.data(), 1, content.size(), f);
+  VSIFCloseL(f);
+}
+
+// The computed columns of a screen output: every column after the input's `n` columns.
+std::vector<std::vector<std::string>> computed(const Table& t, std::size_t n) {
+  std::vector<std::vector<std::string>> rows{{t.header.begin() + static_cast<long>(n), t.header.end()}};
+  for (const auto& r : t.rows) rows.emplace_back(r.begin() + static_cast<long>(n), r.end());
+  return rows;
+}
+
+TEST(DarwinCoreArchive, ZipAndFolderScreenLikeTheCsv) {
+  const auto dir = temp_dir("dwca");
+  const Table demo = read_csv(source_path("demo-points/occurrences.csv"));
+  std::string core = "id\tname\tlon\tlat\tunc\telev\tloc\n";  // a header line the archive says to skip
+  for (const auto& r : demo.rows) {
+    for (std::size_t i = 0; i < r.size(); ++i) core += (i ? "\t" : "") + r[i];
+    core += "\n";
+  }
+  for (const std::string& root : {"/vsizip/" + dir + "/archive.zip", dir + "/folder"}) {
+    if (root.rfind("/vsizip/", 0) != 0) VSIMkdir(root.c_str(), 0755);
+    write_member(root + "/meta.xml", kMeta);
+    write_member(root + "/occurrence.txt", core);
+    write_member(root + "/multimedia.txt", "id\tidentifier\nQM-0001\timage.jpg\n");
+  }
+  const std::string screen = envsift_binary() + " screen -q" + demo_layers() + " --dem dem";
+  ASSERT_EQ(run(screen + " --points " + source_path("demo-points/occurrences.csv") + " --out " + dir + "/csv.csv").exit_code, 0);
+  const auto expected = computed(read_csv(dir + "/csv.csv"), demo.header.size());
+  for (const std::string& points : {dir + "/archive.zip", dir + "/folder"}) {
+    SCOPED_TRACE(points);
+    auto r = run(screen + " --points " + points + " --out " + dir + "/dwca.csv");
+    ASSERT_EQ(r.exit_code, 0) << r.output;
+    EXPECT_NE(r.output.find("1 extension file(s) of the archive are not read"), std::string::npos) << r.output;
+    const Table out = read_csv(dir + "/dwca.csv");
+    ASSERT_EQ(out.header.size(), demo.header.size() + 1 + expected[0].size());
+    EXPECT_EQ(out.header[demo.header.size()], "countryCode");  // the default-valued field
+    for (const auto& row : out.rows) EXPECT_EQ(row[demo.header.size()], "QM");
+    EXPECT_TRUE(computed(out, demo.header.size() + 1) == expected);
+    EXPECT_EQ(std::vector<std::string>(out.rows[2].begin(), out.rows[2].begin() + 7), demo.rows[2]);  // fields as written
+  }
+}
+
+TEST(DarwinCoreArchive, ABrokenMetaXmlIsNamed) {
+  const auto dir = temp_dir("dwca-broken");
+  write_member("/vsizip/" + dir + "/broken.zip/meta.xml", "<archive><extension/></archive>");
+  auto r = run(envsift_binary() + " screen -q" + demo_layers() + " --points " + dir + "/broken.zip --out " + dir + "/o.csv");
+  EXPECT_EQ(r.exit_code, 3) << r.output;
+  EXPECT_NE(r.output.find("broken.zip/meta.xml: has no <archive><core> element"), std::string::npos) << r.output;
+}
+
+}  // namespace
+}  // namespace envsift
