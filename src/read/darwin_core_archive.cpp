@@ -41,6 +41,8 @@ std::optional<ArchiveCore> read_archive_meta(const std::string& path) {
   std::string root;
   if (VSI_ISDIR(st.st_mode)) {
     root = path;
+  } else if (!VSI_ISREG(st.st_mode)) {
+    return std::nullopt;  // a pipe: its first bytes are not ours to read twice
   } else {
     char magic[4] = {};
     VSILFILE* f = VSIFOpenL(path.c_str(), "rb");
