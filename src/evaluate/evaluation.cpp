@@ -7,7 +7,7 @@
 #include <fstream>
 #include <algorithm>
 
-#include "envsift/detect/circular_layers.hpp"
+#include "envsift/sample/circular_layers.hpp"
 #include "envsift/errors.hpp"
 #include "envsift/evaluate/injected_errors.hpp"
 #include "envsift/run/run.hpp"

@@ -63,10 +63,22 @@ Judgement judge_records(RecordTable& t, const ActiveTests& tests, const Membersh
   populations.enabled = s.tests.populations == "split";
   populations.min_rows = s.tests.min_records;
   std::vector<double> test_seconds;
-  const auto layer_names = t.layer_names();
+  // The layers the tests judge: every one but a circular layer, whose sine and cosine stand for it.
+  std::vector<Eigen::Index> judged;
+  std::vector<std::string> layer_names;
+  for (std::size_t l = 0; l < t.layers.size(); ++l)
+    if (t.layers[l].judged) judged.push_back(static_cast<Eigen::Index>(l)), layer_names.push_back(t.layers[l].spec.name);
+  const bool every_layer = judged.size() == t.layers.size();
+  Eigen::MatrixXd values, lower, upper;  // copies only when some layer is left out
+  if (!every_layer) {
+    values = t.values(Eigen::all, judged);
+    if (t.has_discs) lower = t.discs.min(Eigen::all, judged), upper = t.discs.max(Eigen::all, judged);
+  }
+  const Eigen::MatrixXd& judged_values = every_layer ? t.values : values;
+  const Eigen::MatrixXd* judged_lower = !t.has_discs ? nullptr : every_layer ? &t.discs.min : &lower;
+  const Eigen::MatrixXd* judged_upper = !t.has_discs ? nullptr : every_layer ? &t.discs.max : &upper;
   judge_taxa(
-      {t.values, t.cells, m.taxon_of, m.taxon_names, m.eligible, layer_names, t.has_discs ? &t.discs.min : nullptr,
-       t.has_discs ? &t.discs.max : nullptr},
+      {judged_values, t.cells, m.taxon_of, m.taxon_names, m.eligible, layer_names, judged_lower, judged_upper},
       tests.detectors, !s.tests.all_records, s.tests.seed,
       [&](const JudgedTaxon& taxon, std::vector<std::vector<Finding>>& findings) {
         for (std::size_t d = 0; d < tests.detectors.size(); ++d) {

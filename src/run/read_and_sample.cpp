@@ -1,4 +1,4 @@
-#include "envsift/detect/circular_layers.hpp"
+#include "envsift/sample/circular_layers.hpp"
 #include "envsift/reason_codes.hpp"
 #include "envsift/sample/value_columns.hpp"
 #include "envsift/run/run.hpp"
@@ -25,14 +25,19 @@ bool owned_by_this_shard(const ScreenSettings& s, const PointTable& points, std:
 
 RecordTable read_and_sample(const ScreenSettings& s, const ActiveTests* tests) {
   const auto added = added_columns(tests, s.outputs.column_prefix);
-  if (!s.input.value_columns.empty()) {
-    refuse_circular_layers(s.input.value_columns);
-    return read_value_columns(s, added);
-  }
-  std::vector<std::string> layer_names;
-  for (const auto& spec : expand_layer_arguments(s.input.layers)) layer_names.push_back(spec.name);
-  refuse_circular_layers(layer_names);
-  return sample_records(s, added, [&s](const PointTable& points, std::size_t i) { return owned_by_this_shard(s, points, i); });
+  std::vector<std::string> layer_names = s.input.value_columns;
+  if (layer_names.empty())
+    for (const auto& spec : expand_layer_arguments(s.input.layers)) layer_names.push_back(spec.name);
+  const auto circular = circular_layers(layer_names, s.input.circular);  // before the long part: a typo stops here
+  RecordTable t = s.input.value_columns.empty()
+                      ? sample_records(s, added, [&s](const PointTable& points, std::size_t i) { return owned_by_this_shard(s, points, i); })
+                      : read_value_columns(s, added);
+  add_circular_components(t, circular);
+  if (!circular.empty()) check_unique_columns(record_header(t, tests, s.outputs.column_prefix));
+  for (std::size_t l : circular)
+    t.warnings.push_back("layer " + t.layers[l].spec.name + " is circular (a direction in degrees): the tests judge its "
+                         "sine and cosine (columns " + t.layers[l].spec.name + "_sin, " + t.layers[l].spec.name + "_cos)");
+  return t;
 }
 
 }  // namespace run

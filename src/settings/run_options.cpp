@@ -105,6 +105,19 @@ const std::vector<OptionSpec>& input_options() {
                             [](ScreenSettings& s) -> std::string& { return s.input.reader.points_crs; }));
     v.push_back(text_option("points-layer", "NAME", "layer of a multi-layer GeoPackage (default: the first)",
                             [](ScreenSettings& s) -> std::string& { return s.input.reader.vector_layer; }));
+    {
+      OptionSpec circular{"circular", "LAYER,...",
+                          "layers (or value columns) holding directions in degrees, such as aspect: the tests judge their "
+                          "sine and cosine (columns LAYER_sin, LAYER_cos), so 359° and 1° are neighbours. Layers named "
+                          "aspect, azimuth, bearing, direction or orientation are taken as circular without it"};
+      circular.set = [](ScreenSettings& s, const std::string& text) { s.input.circular = split_list(text); };
+      circular.get = [](const ScreenSettings& s) {
+        std::string joined;
+        for (const auto& c : s.input.circular) joined += (joined.empty() ? "" : ",") + c;
+        return joined;
+      };
+      v.push_back(circular);
+    }
     v.push_back(text_option("assume-crs", "CRS",
                             "CRS for layers that have none, e.g. EPSG:4326 (without it such layers are refused)",
                             [](ScreenSettings& s) -> std::string& { return s.input.assume_crs; }));

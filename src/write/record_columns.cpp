@@ -30,12 +30,12 @@ std::vector<std::string> added_columns(const ActiveTests* tests, const std::stri
 
 std::vector<std::string> record_header(const RecordTable& t, const ActiveTests* tests, const std::string& prefix) {
   std::vector<std::string> h = t.points.columns;
-  if (!t.layers_are_columns)
-    for (const auto& l : t.layers) {
-      h.push_back(l.spec.name);
-      if (t.has_discs)
-        for (const char* s : {"_min", "_mean", "_max"}) h.push_back(l.spec.name + s);
-    }
+  for (const auto& l : t.layers) {
+    if (t.layers_are_columns && l.derived_from.empty()) continue;  // already an input column
+    h.push_back(l.spec.name);
+    if (t.has_discs && l.derived_from.empty())
+      for (const char* s : {"_min", "_mean", "_max"}) h.push_back(l.spec.name + s);
+  }
   const auto added = added_columns(tests, prefix);
   h.insert(h.end(), added.begin(), added.end());
   return h;
@@ -44,17 +44,18 @@ std::vector<std::string> record_header(const RecordTable& t, const ActiveTests* 
 std::vector<std::string> record_row(const RecordTable& t, const RecordOutcome& o) {
   std::vector<std::string> row = *o.fields;
   const auto r = static_cast<Eigen::Index>(o.record);
-  if (!t.layers_are_columns)
-    for (std::size_t l = 0; l < t.layers.size(); ++l) {
-      const auto c = static_cast<Eigen::Index>(l);
-      const bool float32 = t.layers[l].float32_values;
-      row.push_back(format_value(t.values(r, c), float32));
-      if (t.has_discs) {
-        row.push_back(format_value(t.discs.min(r, c), float32));
-        row.push_back(format_statistic(t.discs.mean(r, c)));
-        row.push_back(format_value(t.discs.max(r, c), float32));
-      }
+  for (std::size_t l = 0; l < t.layers.size(); ++l) {
+    const bool derived = !t.layers[l].derived_from.empty();
+    if (t.layers_are_columns && !derived) continue;  // already an input column
+    const auto c = static_cast<Eigen::Index>(l);
+    const bool float32 = t.layers[l].float32_values;
+    row.push_back(format_value(t.values(r, c), float32));
+    if (t.has_discs && !derived) {
+      row.push_back(format_value(t.discs.min(r, c), float32));
+      row.push_back(format_statistic(t.discs.mean(r, c)));
+      row.push_back(format_value(t.discs.max(r, c), float32));
     }
+  }
   row.push_back(o.codes->empty() ? reason::ok : join(*o.codes, ";"));
   if (!o.verdict) return row;
   const Verdict& v = *o.verdict;

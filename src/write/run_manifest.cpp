@@ -61,6 +61,7 @@ std::string manifest_json(const RunManifest& m) {
   nlohmann::ordered_json layers = nlohmann::ordered_json::array();
   {
     for (const LayerInfo& l : m.layers) {
+      if (!l.derived_from.empty()) continue;  // a circular layer's sine or cosine: not a file
       nlohmann::ordered_json layer = file_entry(l.spec.path);
       layer["name"] = l.spec.name;
       layer["band"] = l.spec.band;

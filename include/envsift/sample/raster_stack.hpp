@@ -44,6 +44,8 @@ struct LayerInfo {
   int block_width = 0, block_height = 0;
   bool float32_values = false;  // unscaled Float32: values are printed as 32-bit floats
   int decimals = -1;  // integer cells with scale/offset: values are rounded to this many decimals
+  bool judged = true;         // false for a circular layer: the tests see its sine and cosine instead
+  std::string derived_from;   // a derived component (LAYER_sin, LAYER_cos): the layer it comes from
 };
 
 enum class CellStatus : std::uint8_t { ok, no_point, outside, nodata };

@@ -21,6 +21,7 @@ struct InputSettings {
   std::vector<std::string> value_columns;  // screen these input columns instead of sampling layers
   bool single_taxon = false;               // one group for the whole file
   std::string assume_crs;                  // CRS for layers that have none (else they are refused)
+  std::vector<std::string> circular;       // layers holding directions in degrees (besides those named so)
 };
 
 struct SamplingSettings {

@@ -178,7 +178,7 @@ TaxonPicture ReportOutput::picture(const JudgedTaxon& taxon, const std::vector<V
     std::vector<double> column(p.reference.col(static_cast<Eigen::Index>(l)).data(),
                                p.reference.col(static_cast<Eigen::Index>(l)).data() + p.reference.rows());
     const auto& entries = run_->tests->entries;
-    for (std::size_t d = 0; d < run_->tests->detectors.size(); ++d) {
+    for (std::size_t d = 0; d < run_->tests->detectors.size() && t.layers[l].judged; ++d) {
       const auto* test = dynamic_cast<const PerLayerDetector*>(run_->tests->detectors[d].get());
       if (!test || !entries[d]->cutoffs) continue;
       if (const auto range = test->accepted_range(column, layer.name))
