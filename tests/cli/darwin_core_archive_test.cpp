@@ -29,7 +29,7 @@ const char* kMeta =
     "    <field term=\"http://rs.tdwg.org/dwc/terms/countryCode\" default=\"QM\"/>\n"
     "  </core>\n"
     "  <extension encoding=\"UTF-8\" fieldsTerminatedBy=\"\\t\" linesTerminatedBy=\"\\n\" fieldsEnclosedBy=\"\"\n"
-    "             ignoreHeaderLines=\"1\" rowType=\"http://rs.gbif.org/terms/1.0/Multimedia\">\n"
+    "             ignoreHeaderLines=\"1\" rowType=\"http://rs.tdwg.org/ac/terms/Multimedia\">\n"
     "    <files><location>multimedia.txt</location></files>\n"
     "    <coreid index=\"0\"/>\n"
     "  </extension>\n"
