@@ -15,7 +15,7 @@ struct RunSummary {
   std::size_t read = 0;
   std::size_t scored = 0;
   std::size_t flagged = 0;
-  std::map<std::string, std::size_t> not_scored;  // by first reason code
+  std::map<std::string, std::size_t> not_scored;  // by the code that prevented scoring (reason::why_not_scored)
   std::map<std::string, std::size_t> codes;       // every reason code, over all records
   std::vector<std::string> warnings;              // e.g. a layer no record falls on
   StageSeconds seconds;                           // time per stage (and per test, CPU time)

@@ -190,7 +190,7 @@ void HtmlReport::finish(const ReportOverview& o) {
        cell(std::to_string(o.read), true) + cell(std::to_string(o.scored), true) +
        cell(std::to_string(o.flagged), true) + cell(std::to_string(o.read - o.scored), true) + "</tr></table>";
   if (!o.not_scored.empty()) {
-    s += "<p>Records not scored, by their first reason (each is in the output with its reasons):</p><table>"
+    s += "<p>Records not scored, by the reason that prevented scoring (each is in the output with all its reasons):</p><table>"
          "<tr><th>reason</th><th>records</th></tr>";
     for (const auto& [code, count] : o.not_scored) s += "<tr>" + cell(code) + cell(std::to_string(count), true) + "</tr>";
     s += "</table>";
