@@ -12,6 +12,17 @@ namespace {
 
 using namespace envsift::testing;
 
+// Writes `content` to DIR/NAME, samples it on the demo layers (with `options`) into DIR/out.csv
+// and returns what the run printed; the test fails here when the run does not succeed.
+std::string sample_file(const std::string& dir, const std::string& name, const std::string& content,
+                        const std::string& options = "") {
+  write_file(dir + name, content);
+  const auto r = run(envsift_binary() + " sample -q " + options + " --points " + dir + name + demo_layers() + " --out " + dir +
+                     "/out.csv");
+  EXPECT_EQ(r.exit_code, 0) << r.output;
+  return r.output;
+}
+
 const std::string kHeader = "occurrenceID\tscientificName\tdecimalLongitude\tdecimalLatitude\tlocality\n";
 
 // A tab-separated export whose localities hold quotes at a field's start, inside, unclosed, and a
@@ -39,10 +50,8 @@ TEST(RealFiles, TabSeparatedExportIsReadLiterallyEveryLineOneRecord) {
   const auto rows = tsv_rows();
   for (const char* name : {"/export.tsv", "/occurrence.txt"}) {  // by extension, and sniffed
     SCOPED_TRACE(name);
-    write_file(dir + name, as_tsv(rows));
-    auto r = run(envsift_binary() + " sample -q --points " + dir + name + demo_layers() + " --out " + dir + "/out.csv");
-    ASSERT_EQ(r.exit_code, 0) << r.output;
-    EXPECT_EQ(r.output.find("warning"), std::string::npos) << r.output;
+    const std::string said = sample_file(dir, name, as_tsv(rows));
+    EXPECT_EQ(said.find("warning"), std::string::npos) << said;
     const Table out = read_csv(dir + "/out.csv");
     ASSERT_EQ(out.rows.size(), rows.size());
     for (std::size_t i = 0; i < rows.size(); ++i) {
@@ -54,10 +63,7 @@ TEST(RealFiles, TabSeparatedExportIsReadLiterallyEveryLineOneRecord) {
 
 TEST(RealFiles, TheSameFileAsRfc4180MergesOnlyWithACodeAndAWarning) {
   const auto dir = temp_dir("tsv-rfc4180");
-  write_file(dir + "/export.tsv", as_tsv(tsv_rows()));
-  auto r = run(envsift_binary() + " sample -q --quoting rfc4180 --points " + dir + "/export.tsv" + demo_layers() +
-               " --out " + dir + "/out.csv");
-  ASSERT_EQ(r.exit_code, 0) << r.output;
+  const std::string said = sample_file(dir, "/export.tsv", as_tsv(tsv_rows()), "--quoting rfc4180");
   // RFC 4180: "Old mill" road → Old mill road; "Big rock, near hut… opens a quoted field that runs
   // on over the following lines to the next quote, so those lines become one record
   const Table out = read_csv(dir + "/out.csv");
@@ -66,20 +72,17 @@ TEST(RealFiles, TheSameFileAsRfc4180MergesOnlyWithACodeAndAWarning) {
   bool flagged_merge = false;
   for (const auto& row : out.rows) flagged_merge |= row[out.column("status")].find("spans_lines") != std::string::npos;
   EXPECT_TRUE(flagged_merge);
-  EXPECT_NE(r.output.find("1 record(s) span several lines, a quoted field holding a line break (lines 4-6"),
-            std::string::npos)
-      << r.output;
-  EXPECT_NE(r.output.find("--quoting literal"), std::string::npos) << r.output;
+  EXPECT_NE(said.find("1 record(s) span several lines, a quoted field holding a line break (lines 4-6"), std::string::npos)
+      << said;
+  EXPECT_NE(said.find("--quoting literal"), std::string::npos) << said;
 }
 
 TEST(RealFiles, CsvKeepsRfc4180Quoting) {
   const auto dir = temp_dir("csv-rfc4180");
-  write_file(dir + "/p.csv",
-             "occurrenceID,scientificName,decimalLongitude,decimalLatitude,locality\n"
-             "C1,Orophila nivicola,0.47831,0.6708,\"plot 1, \"\"upper\"\" meadow\"\n"
-             "C2,Orophila nivicola,0.42082,0.41779,\"two\nlines\"\n");
-  auto r = run(envsift_binary() + " sample -q --points " + dir + "/p.csv" + demo_layers() + " --out " + dir + "/out.csv");
-  ASSERT_EQ(r.exit_code, 0) << r.output;
+  sample_file(dir, "/p.csv",
+              "occurrenceID,scientificName,decimalLongitude,decimalLatitude,locality\n"
+              "C1,Orophila nivicola,0.47831,0.6708,\"plot 1, \"\"upper\"\" meadow\"\n"
+              "C2,Orophila nivicola,0.42082,0.41779,\"two\nlines\"\n");
   const Table out = read_csv(dir + "/out.csv");
   ASSERT_EQ(out.rows.size(), 2u);
   EXPECT_EQ(out.rows[0][4], "plot 1, \"upper\" meadow");
@@ -146,14 +149,12 @@ TEST(RealFiles, NotScoredBreakdownNamesTheReasonThatPreventedScoring) {
 // \N or - for a missing value (common practice: R's NA, SQL's NULL, MySQL's \N in its dumps).
 TEST(RealFiles, CrOnlyLineEndingsAndMissingValueMarkers) {
   const auto dir = temp_dir("cr-and-markers");
-  write_file(dir + "/mac.csv", "occurrenceID,scientificName,decimalLongitude,decimalLatitude\r"
+  sample_file(dir, "/mac.csv", "occurrenceID,scientificName,decimalLongitude,decimalLatitude\r"
                                "M1,Orophila nivicola,0.47831,0.6708\r"
                                "M2,Orophila nivicola,NA,0.41779\r"
                                "M3,Orophila nivicola,0.5125,null\r"
                                "M4,Orophila nivicola,\\N,NULL\r"
                                "M5,Orophila nivicola,-,0.61887\r");
-  auto r = run(envsift_binary() + " sample -q --points " + dir + "/mac.csv" + demo_layers() + " --out " + dir + "/out.csv");
-  ASSERT_EQ(r.exit_code, 0) << r.output;
   const Table out = read_csv(dir + "/out.csv");
   ASSERT_EQ(out.rows.size(), 5u);
   EXPECT_EQ(out.header[1], "scientificName");
@@ -163,7 +164,8 @@ TEST(RealFiles, CrOnlyLineEndingsAndMissingValueMarkers) {
   EXPECT_EQ(out.rows[3][2], "\\N");  // the original text is kept
 
   write_file(dir + "/values.csv", "occurrenceID,scientificName,t\nV1,Orophila nivicola,NA\nV2,Orophila nivicola,12.5\n");
-  r = run(envsift_binary() + " screen -q --single-taxon --points " + dir + "/values.csv --value-columns t --out " + dir + "/v.csv");
+  const auto r = run(envsift_binary() + " screen -q --single-taxon --points " + dir + "/values.csv --value-columns t --out " +
+                     dir + "/v.csv");
   ASSERT_EQ(r.exit_code, 0) << r.output;
   EXPECT_EQ(read_csv(dir + "/v.csv").rows[0][3].rfind("value_missing:t", 0), 0u);
 }
