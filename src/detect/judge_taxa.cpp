@@ -33,7 +33,7 @@ std::vector<JudgedTaxon> judge_taxa(const JudgingInput& in, const std::vector<st
     const auto rows = static_cast<Eigen::Index>(g.records.size());
     Eigen::MatrixXd records(rows, L), lower, upper;
     if (in.lower) lower.resize(rows, L), upper.resize(rows, L);
-    std::vector<Eigen::Index> reference_rows;
+    std::vector<Eigen::Index> reference_rows, place_rows;  // rows the statistics use; one row per place
     std::unordered_set<std::uint64_t> seen;
     JudgedTaxon& screened = result[index];
     screened.index = index;
@@ -43,13 +43,19 @@ std::vector<JudgedTaxon> judge_taxa(const JudgingInput& in, const std::vector<st
       const auto i = static_cast<Eigen::Index>(g.records[static_cast<std::size_t>(r)]);
       records.row(r) = in.values.row(i);
       if (in.lower) lower.row(r) = in.lower->row(i), upper.row(r) = in.upper->row(i);
-      if (!distinct_cells || seen.insert(in.cells[static_cast<std::size_t>(i)]).second) {
+      const bool new_place = seen.insert(in.cells[static_cast<std::size_t>(i)]).second;
+      if (new_place) place_rows.push_back(r);
+      if (!distinct_cells || new_place) {
         reference_rows.push_back(r);
         screened.reference.push_back(static_cast<std::size_t>(i));
       }
     }
-    Eigen::MatrixXd reference(static_cast<Eigen::Index>(reference_rows.size()), L);
-    for (std::size_t r = 0; r < reference_rows.size(); ++r) reference.row(static_cast<Eigen::Index>(r)) = records.row(reference_rows[r]);
+    auto pick = [](const Eigen::MatrixXd& m, const std::vector<Eigen::Index>& at) {
+      Eigen::MatrixXd out(static_cast<Eigen::Index>(at.size()), m.cols());
+      for (std::size_t r = 0; r < at.size(); ++r) out.row(static_cast<Eigen::Index>(r)) = m.row(at[r]);
+      return out;
+    };
+    const Eigen::MatrixXd reference = pick(records, reference_rows);
 
     const std::uint64_t taxon_seed = stable_hash(g.taxon, seed ^ kFnvBasis);
     auto judge = [&](const TaxonValues& values) {
@@ -65,7 +71,9 @@ std::vector<JudgedTaxon> judge_taxa(const JudgingInput& in, const std::vector<st
       }
       return found;
     };
-    const Populations split = find_populations(reference, population_options);
+    // Populations are told by places, not records (even with --all-records): a batch of records at
+    // a few wrong places is a few rows here, never a population.
+    const Populations split = find_populations(distinct_cells ? reference : pick(records, place_rows), population_options);
     std::vector<std::vector<Finding>> findings;
     if (!split.split) {
       findings = judge({reference, records, in.layer_names, taxon_seed, in.lower ? &lower : nullptr, in.upper ? &upper : nullptr});
@@ -74,16 +82,11 @@ std::vector<JudgedTaxon> judge_taxa(const JudgingInput& in, const std::vector<st
       screened.two_populations = true;
       findings.assign(detectors.size(), std::vector<Finding>(static_cast<std::size_t>(rows)));
       for (std::uint8_t k = 0; k < 2; ++k) {
-        auto pick = [](const Eigen::MatrixXd& m, const std::vector<Eigen::Index>& at) {
-          Eigen::MatrixXd out(static_cast<Eigen::Index>(at.size()), m.cols());
-          for (std::size_t i = 0; i < at.size(); ++i) out.row(static_cast<Eigen::Index>(i)) = m.row(at[i]);
-          return out;
-        };
         std::vector<Eigen::Index> mine, my_reference;
         for (Eigen::Index r = 0; r < rows; ++r)
           if (split.population_of(records.row(r)) == k) mine.push_back(r);
         for (Eigen::Index r = 0; r < reference.rows(); ++r)
-          if (split.of_reference[static_cast<std::size_t>(r)] == k) my_reference.push_back(r);
+          if (split.population_of(reference.row(r)) == k) my_reference.push_back(r);
         const Eigen::MatrixXd part_reference = pick(reference, my_reference), part_records = pick(records, mine);
         Eigen::MatrixXd part_lower, part_upper;
         if (in.lower) part_lower = pick(lower, mine), part_upper = pick(upper, mine);

@@ -87,9 +87,14 @@ class JackknifeLayerJudge : public PerLayerDetector::Layer {
       const bool low = x < j_.mean;
       const double inner = low ? j_.sorted[at + 1] : j_.sorted[at - 1], outer = j_.sorted[at];
       char buf[256];
-      std::snprintf(buf, sizeof buf,
-                    "%s %.6g is beyond a gap in the taxon's values, from %.6g to %.6g (gap statistic %.1f > %.1f)",
-                    name_.c_str(), x, low ? outer : inner, low ? inner : outer, stat, j_.threshold);
+      if (x == outer)  // the value at the gap's edge: the gap runs from it to the taxon's next value
+        std::snprintf(buf, sizeof buf,
+                      "%s %.6g is cut off from the taxon's other values by a gap to %.6g (gap statistic %.1f > %.1f)",
+                      name_.c_str(), x, inner, stat, j_.threshold);
+      else
+        std::snprintf(buf, sizeof buf,
+                      "%s %.6g lies beyond a gap in the taxon's values, from %.6g to %.6g (gap statistic %.1f > %.1f)",
+                      name_.c_str(), x, low ? outer : inner, low ? inner : outer, stat, j_.threshold);
       v.reason = buf;
     }
     return v;

@@ -106,9 +106,11 @@ const std::vector<OptionSpec>& test_options() {
         [](ScreenSettings& s) -> std::string& { return s.tests.populations; }, {"split", "one"}));
     v.push_back(real_option(
         "max-flagged-share", "S",
-        "when one test flags more than this share of a taxon's judged records (and at least 5), the taxon probably has "
-        "several populations, not that many errors: that test's flags are withheld for the taxon, its records get "
-        "looks_multimodal:TEST and a warning names the taxon. 1 turns this off",
+        "when one test flags more than this share of the distinct places (cells) of a taxon it judged, and at least 5 "
+        "places, the taxon probably has several populations, not that many errors: that test's flags are withheld for "
+        "the taxon (its records keep their score and rank), they get looks_multimodal:TEST and a warning names the "
+        "taxon. Places, not records, are counted, so a batch of records at a few wrong places stays flagged. 1 turns "
+        "this off",
         [](ScreenSettings& s) -> double& { return s.tests.max_flagged_share; }, {0.0, 1.0, true, false}));
     for (const auto& e : test_registry()) v.insert(v.end(), e.options.begin(), e.options.end());
     return v;

@@ -34,7 +34,7 @@ struct ScratchDirectory {
 };
 
 // The screen's verdicts on the virtual records, judged as a reader of the output would: each test
-// by its statistic and cutoff as written (a withheld flag ranks at its cutoff), the combined
+// by its statistic and cutoff as written (a withheld flag still ranks by its statistic), the combined
 // verdict by the score as written.
 class VerdictTally : public RecordSink {
  public:
@@ -53,10 +53,7 @@ class VerdictTally : public RecordSink {
       JudgedRecord j = base;
       j.scored = r.tested && !std::isnan(r.statistic);  // as an empty statistic column reads
       j.flagged = std::find(v.flags.begin(), v.flags.end(), tests_[t]) != v.flags.end();
-      if (j.scored) {
-        const double severity = statistic_as_written(r.statistic) / statistic_as_written(r.threshold);
-        j.score = j.flagged ? severity : std::min(severity, 1.0);
-      }
+      if (j.scored) j.score = statistic_as_written(r.statistic) / statistic_as_written(r.threshold);
       judged_[t].push_back(j);
     }
     JudgedRecord all = base;

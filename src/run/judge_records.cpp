@@ -10,12 +10,14 @@
 namespace envsift::run {
 namespace {
 
-std::string withheld_words(const std::string& taxon, const std::string& test, double share) {
-  char words[320];
+std::string withheld_words(const std::string& taxon, const std::string& test, const GuardOutcome& g) {
+  char words[400];
   std::snprintf(words, sizeof words,
-                "taxon '%s': %s flagged %.0f%% of its records, so it may have several populations; "
-                "those flags are withheld (looks_multimodal:%s) - review the taxon as a whole",
-                taxon.c_str(), test.c_str(), 100 * share, test.c_str());
+                "taxon '%s': %s flagged %zu records at %zu of its %zu places (%.0f%%), so it may have several "
+                "populations; those flags are withheld (looks_multimodal:%s), the records keep their rank - review "
+                "the taxon as a whole",
+                taxon.c_str(), test.c_str(), g.flagged_records, g.flagged_places, g.judged_places, 100 * g.share(),
+                test.c_str());
   return words;
 }
 
@@ -81,11 +83,13 @@ Judgement judge_records(RecordTable& t, const ActiveTests& tests, const Membersh
       {judged_values, t.cells, m.taxon_of, m.taxon_names, m.eligible, layer_names, judged_lower, judged_upper},
       tests.detectors, !s.tests.all_records, s.tests.seed,
       [&](const JudgedTaxon& taxon, std::vector<std::vector<Finding>>& findings) {
+        std::vector<std::uint64_t> places;
+        for (std::size_t i : taxon.records) places.push_back(t.cells[i]);
         for (std::size_t d = 0; d < tests.detectors.size(); ++d) {
-          const double share = withhold_population_flags(findings[d], names[d], guard);
-          if (share < 0) continue;
+          const GuardOutcome g = withhold_population_flags(findings[d], places, names[d], guard);
+          if (!g.withheld) continue;
           std::lock_guard<std::mutex> hold(lock);
-          withheld.emplace_back(taxon.index, withheld_words(taxon.taxon, names[d], share));
+          withheld.emplace_back(taxon.index, withheld_words(taxon.taxon, names[d], g));
         }
         std::vector<Verdict> verdicts;
         for (std::size_t r = 0; r < taxon.records.size(); ++r) {

@@ -1,25 +1,30 @@
 #include "envsift/score/population_guard.hpp"
 
-#include <algorithm>
+#include <unordered_set>
 
 #include "envsift/reason_codes.hpp"
 
 namespace envsift {
 
-double withhold_population_flags(std::vector<Finding>& findings, const std::string& test, const PopulationGuard& guard) {
-  std::size_t judged = 0, flagged = 0;
-  for (const auto& f : findings) judged += f.tested, flagged += f.flagged;
-  if (judged == 0 || flagged < guard.min_count) return -1;
-  const double share = static_cast<double>(flagged) / static_cast<double>(judged);
-  if (share <= guard.max_share) return -1;
+GuardOutcome withhold_population_flags(std::vector<Finding>& findings, const std::vector<std::uint64_t>& locality,
+                                       const std::string& test, const PopulationGuard& guard) {
+  GuardOutcome o;
+  std::unordered_set<std::uint64_t> judged, flagged;
+  for (std::size_t r = 0; r < findings.size(); ++r) {
+    if (!findings[r].tested) continue;
+    judged.insert(locality[r]);
+    if (findings[r].flagged) flagged.insert(locality[r]), ++o.flagged_records;
+  }
+  o.judged_places = judged.size(), o.flagged_places = flagged.size();
+  if (o.flagged_places < guard.min_places || !(o.share() > guard.max_share)) return o;
+  o.withheld = true;
   for (auto& f : findings)
     if (f.flagged) {
-      f.flagged = false;
-      f.severity = std::min(f.severity, 1.0);  // at the cutoff: ranked with the closest calls
+      f.flagged = false;  // severity kept: the record still ranks by how far out it is
       f.reasons.clear();
       f.codes.push_back(reason::on_layer(reason::looks_multimodal, test));
     }
-  return share;
+  return o;
 }
 
 }  // namespace envsift

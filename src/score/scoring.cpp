@@ -3,7 +3,17 @@
 #include <algorithm>
 #include <numeric>
 
+#include "envsift/reason_codes.hpp"
+
 namespace envsift {
+
+std::vector<std::string> Verdict::withheld() const {
+  const std::string prefix = reason::looks_multimodal + ":";
+  std::vector<std::string> tests;
+  for (const auto& c : codes)
+    if (c.compare(0, prefix.size(), prefix) == 0) tests.push_back(c.substr(prefix.size()));
+  return tests;
+}
 
 Verdict combine(const std::vector<const Finding*>& findings, const std::vector<std::string>& names) {
   Verdict v;

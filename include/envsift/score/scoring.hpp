@@ -2,7 +2,8 @@
 //
 //   score = max over tests t that judged the record of  statistic_t / threshold_t
 //
-// so score > 1 exactly when some test flagged the record, and scores are comparable across taxa
+// so score > 1 exactly when some test flagged the record (or flagged it and the population guard
+// withheld the flag, score/population_guard.hpp), and scores are comparable across taxa
 // and tests (each is "how many times its own cutoff"). Records are ranked by score, highest
 // first; ties keep input order.
 #pragma once
@@ -30,6 +31,10 @@ struct Verdict {
   std::vector<std::string> reasons; // plain words, most severe test first
   std::vector<std::string> codes;   // reason codes of tests that could not judge it, or withheld their flags
   std::vector<TestResult> tests;    // per test, in the run's order
+  // Tests whose flag on this record the population guard withheld (codes looks_multimodal:TEST).
+  std::vector<std::string> withheld() const;
+  // Flagged, or a flag withheld: a record a reviewer should see.
+  bool for_review() const { return !flags.empty() || !withheld().empty(); }
 };
 
 // `findings[t]` is test t's finding for this record; `names[t]` its name.

@@ -122,6 +122,13 @@ std::string HtmlReport::section(std::size_t index, const TaxonPicture& t, std::s
   if (t.two_populations)
     s += "<p class=\"note\">Its records form two separate groups in the layers' space, so each group was judged "
          "against itself as a population; the plots and cutoffs below show the taxon as a whole.</p>";
+  if (!t.withheld_tests.empty()) {
+    std::string tests;
+    for (const auto& w : t.withheld_tests) tests += (tests.empty() ? "" : ", ") + w;
+    s += "<p class=\"note\">The flags of " + escape(tests) + " were withheld for this taxon: they fell on too many of "
+         "its places for a few errors (looks_multimodal). Those records are marked and listed together below, worst "
+         "first: a second population, or a batch of errors spread over many places. Review them as a group.</p>";
+  }
   s += "<div class=\"pictures\">";
   if (const auto box = map_box(t)) {
     const std::string relief = relief_.path.empty() ? "" : shaded_relief_png(relief_.path, relief_.band, *box);

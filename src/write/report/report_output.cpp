@@ -34,6 +34,21 @@ std::string joined(const std::vector<std::string>& parts, const char* separator)
   return s;
 }
 
+// A withheld flag is shown as such, so the group a taxon-level warning withheld is seen together.
+std::string flags_text(const Verdict& v) {
+  std::string s = joined(v.flags, ";");
+  for (const auto& w : v.withheld()) s += (s.empty() ? "" : ";") + ("withheld " + w);
+  return s;
+}
+std::string reasons_text(const Verdict& v) {
+  std::string s = joined(v.reasons, "; ");
+  const auto withheld = v.withheld();
+  if (!withheld.empty())
+    s += (s.empty() ? "" : "; ") + ("beyond the cutoff of " + joined(withheld, ", ") +
+                                   ", whose flags were withheld for this taxon (looks_multimodal)");
+  return s;
+}
+
 class ReportOutput : public RecordSink {
  public:
   explicit ReportOutput(std::string path) : path_(std::move(path)) {}
@@ -52,7 +67,7 @@ class ReportOutput : public RecordSink {
     TaxonListing listing{taxon.taxon, taxon.records.size(), judged(verdicts), 0};
     double worst = 0;
     for (const auto& v : verdicts)
-      if (!v.flags.empty()) ++listing.suspects, worst = std::max(worst, v.score.value_or(0));
+      if (v.for_review()) ++listing.suspects, worst = std::max(worst, v.score.value_or(0));
     report_->list_taxon(taxon.index, listing);
     std::lock_guard<std::mutex> guard(lock_);
     taxon_index_[taxon.taxon] = taxon.index;
@@ -64,10 +79,10 @@ class ReportOutput : public RecordSink {
   }
 
   void record(const RecordOutcome& o) override {
-    if (o.rank == 0 || o.rank > kTopSuspects || o.verdict->flags.empty()) return;
+    if (o.rank == 0 || o.rank > kTopSuspects || !o.verdict->for_review()) return;
     const Verdict& v = *o.verdict;
-    ReportSuspect s{o.rank, label(o.record, o.fields), taxon_name(o.record), format_score(*v.score), joined(v.flags, ";"),
-                    joined(v.reasons, "; ")};
+    ReportSuspect s{o.rank, label(o.record, o.fields), taxon_name(o.record), format_score(*v.score), flags_text(v),
+                    reasons_text(v)};
     if (const auto it = taxon_index_.find(s.taxon); it != taxon_index_.end()) s.taxon_index = it->second;
     top_.push_back(std::move(s));
   }
@@ -191,12 +206,14 @@ TaxonPicture ReportOutput::picture(const JudgedTaxon& taxon, const std::vector<V
     const std::size_t i = taxon.records[k];
     const Verdict& v = verdicts[k];
     PlotRecord r;
-    r.suspect = !v.flags.empty();
+    r.suspect = v.for_review();
     r.label = r.suspect ? label(i) : std::string();
     r.longitude = t.points.records[i].longitude;
     r.latitude = t.points.records[i].latitude;
     r.score = v.score.value_or(0);
-    r.reasons = joined(v.reasons, "; ");
+    r.reasons = reasons_text(v);
+    for (const auto& w : v.withheld())
+      if (std::find(p.withheld_tests.begin(), p.withheld_tests.end(), w) == p.withheld_tests.end()) p.withheld_tests.push_back(w);
     for (std::size_t l = 0; l < layers; ++l) {
       const auto [low, high] = t.range(i, l);
       r.value.push_back(t.values(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(l)));

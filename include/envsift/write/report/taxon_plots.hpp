@@ -57,6 +57,7 @@ struct TaxonPicture {
   std::string reference_label;     // what a reference row is, e.g. "distinct cells"
   std::vector<PlotRecord> records; // every record of the taxon; suspects in order of score
   bool two_populations = false;    // judged as two populations (group/populations.hpp)
+  std::vector<std::string> withheld_tests;  // tests whose flags the population guard withheld here
 };
 
 std::string distribution_plot(const TaxonPicture& taxon, std::size_t layer);
