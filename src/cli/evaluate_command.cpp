@@ -32,10 +32,11 @@ int evaluate_command(int argc, char** argv) {
       "Measure what the tests find on your own rasters: build virtual taxa with a known response to every\n"
       "layer (Gaussian, random optimum and width; records drawn in proportion to suitability), put known\n"
       "georeferencing errors into a share of each taxon's records (relocation, latitude/longitude swap, sign\n"
-      "flips, decimal shift), screen them with the same options as `screen`, and write per test and for the\n"
+      "flips, decimal shift) and batches of errors at a few wrong places into a share of the taxa, screen them with the same options as `screen`, and write per test and for the\n"
       "combined verdict: recall on errors into unsuitable environment and on all errors, the false-flag rate\n"
       "on clean records, precision, and the average precision of the ranking. Seeded: the same options give\n"
-      "the same table.\n\nOptions",
+      "the same table. Each measure is given for slices of the records: all, single errors, relocations,\n"
+      "batches, second populations, and taxa by their number of distinct places.\n\nOptions",
       100, 50);
   d.add_options()
     ("out", po::value(&out)->required()->value_name("FILE.csv"), "where to write the table (CSV)")
@@ -48,7 +49,13 @@ int evaluate_command(int argc, char** argv) {
     ("two-population-share", po::value(&e.taxa.two_population_share)->default_value(e.taxa.two_population_share)->value_name("S"),
      "share of the taxa with two populations in different environments (30-50 % of records in the second)")
     ("error-share", po::value(&e.error_share)->default_value(e.error_share)->value_name("S"),
-     "share of each taxon's records given an error (at least one)")
+     "share of each taxon's records given a single error (at least one)")
+    ("batch-taxa-share", po::value(&e.batch_taxa_share)->default_value(e.batch_taxa_share, "0.33")->value_name("S"),
+     "share of the taxa that also get a batch of errors: records moved together to one to a few wrong places")
+    ("batch-share", po::value<std::string>()->default_value("0.12-0.25")->value_name("LOW-HIGH"),
+     "a batch holds this share of its taxon's records, uniform between LOW and HIGH")
+    ("batch-places", po::value<std::string>()->default_value("1-3")->value_name("MIN-MAX"),
+     "a batch's records are spread over this many wrong places (random cells)")
     ("unsuitable-below", po::value(&e.unsuitable_below)->default_value(e.unsuitable_below)->value_name("S"),
      "an error moved the record into unsuitable environment when the taxon's suitability there is below S "
      "(suitability is 1 at the optimum)")
@@ -75,17 +82,27 @@ int evaluate_command(int argc, char** argv) {
   const std::string widths = vm["response-width"].as<std::string>();
   if (std::sscanf(widths.c_str(), "%lf-%lf", &e.taxa.width_low, &e.taxa.width_high) != 2)
     throw UsageError("--response-width must be LOW-HIGH with 0 < LOW <= HIGH, e.g. 0.1-0.4, not '" + widths + "'");
+  const std::string batch_share = vm["batch-share"].as<std::string>();
+  if (std::sscanf(batch_share.c_str(), "%lf-%lf", &e.batch_share_low, &e.batch_share_high) != 2)
+    throw UsageError("--batch-share must be LOW-HIGH with 0 < LOW <= HIGH <= 0.5, e.g. 0.12-0.25, not '" + batch_share + "'");
+  const std::string batch_places = vm["batch-places"].as<std::string>();
+  unsigned long fewest = 0, most = 0;
+  if (std::sscanf(batch_places.c_str(), "%lu-%lu", &fewest, &most) != 2)
+    throw UsageError("--batch-places must be MIN-MAX with 1 <= MIN <= MAX, e.g. 1-3, not '" + batch_places + "'");
+  e.batch_places_low = fewest, e.batch_places_high = most;
   validate(e);
 
   const Evaluation result = run_evaluation(e);
   write_evaluation(out, result);
   for (const auto& w : result.screen.warnings) std::cerr << "envsift: note: " << w << "\n";
-  std::fprintf(stderr, "envsift: %zu virtual taxa, %zu records, %zu errors (%zu fell off the layers)\n", result.taxa,
-               result.records, result.errors, result.errors_off_layers);
-  std::fprintf(stderr, "%-20s %9s %9s %9s %9s %9s\n", "test", "rec.unsu", "rec.all", "false", "precis.", "avg.prec");
+  std::fprintf(stderr, "envsift: %zu virtual taxa, %zu records, %zu errors (%zu in batches; %zu fell off the layers)\n",
+               result.taxa, result.records, result.errors, result.batch_errors, result.errors_off_layers);
+  std::fprintf(stderr, "%-20s %-18s %9s %9s %9s %9s %9s\n", "test", "slice", "rec.unsu", "rec.all", "false", "precis.", "avg.prec");
   for (const auto& r : result.rows)
-    std::fprintf(stderr, "%-20s %9.4f %9.4f %9.4f %9.4f %9.4f\n", r.test.c_str(), r.metrics.recall_unsuitable,
-                 r.metrics.recall_all, r.metrics.false_flag_rate, r.metrics.precision, r.metrics.average_precision);
+    if (r.slice == "all" || r.test == "combined")
+      std::fprintf(stderr, "%-20s %-18s %9.4f %9.4f %9.4f %9.4f %9.4f\n", r.test.c_str(), r.slice.c_str(),
+                   r.metrics.recall_unsuitable, r.metrics.recall_all, r.metrics.false_flag_rate, r.metrics.precision,
+                   r.metrics.average_precision);
   std::cerr << "envsift: wrote " << out << "\n";
   return 0;
 }

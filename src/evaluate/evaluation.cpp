@@ -6,9 +6,11 @@
 #include <filesystem>
 #include <fstream>
 #include <algorithm>
+#include <set>
 
 #include "envsift/sample/circular_layers.hpp"
 #include "envsift/errors.hpp"
+#include "envsift/evaluate/evaluation_slices.hpp"
 #include "envsift/evaluate/injected_errors.hpp"
 #include "envsift/run/run.hpp"
 #include "envsift/settings/run_options.hpp"
@@ -90,6 +92,7 @@ Evaluation run_evaluation(const EvaluateOptions& o) {
   const auto taxa = make_virtual_taxa(area, o.taxa);
   std::vector<VirtualRecord> records;
   std::vector<const VirtualTaxon*> taxon_of;
+  std::vector<RecordTruth> truth_of;
   for (std::size_t t = 0; t < taxa.size(); ++t) {
     std::vector<VirtualRecord> mine;
     for (std::size_t cell : taxa[t].cells) {
@@ -99,6 +102,16 @@ Evaluation run_evaluation(const EvaluateOptions& o) {
     }
     SeededRandom random(o.taxa.seed * 0xd1b54a32d192ed03ull + t + 7);
     inject_errors(mine, area, o.error_share, random);
+    SeededRandom batch_random(o.taxa.seed * 0x8cb92ba72f3d8dd7ull + t + 11);  // its own stream: single errors stay as they were
+    if (batch_random.uniform() < o.batch_taxa_share) {
+      const double share = batch_random.uniform(o.batch_share_low, o.batch_share_high);
+      const std::size_t places = o.batch_places_low + batch_random.below(o.batch_places_high - o.batch_places_low + 1);
+      inject_batch(mine, area, share, places, batch_random);
+    }
+    std::set<std::pair<double, double>> places;
+    for (const auto& r : mine) places.emplace(r.longitude, r.latitude);
+    for (std::size_t k = 0; k < mine.size(); ++k)
+      truth_of.push_back({mine[k].error, mine[k].error.empty() && taxa[t].population[k] == 1, places.size()});
     for (auto& r : mine) records.push_back(std::move(r)), taxon_of.push_back(&taxa[t]);
   }
 
@@ -137,13 +150,15 @@ Evaluation run_evaluation(const EvaluateOptions& o) {
   for (std::size_t i = 0; i < records.size(); ++i) {
     truth[i].error = !records[i].error.empty();
     truth[i].unsuitable = truth[i].error && suitability[i] < o.unsuitable_below;
-    if (truth[i].error) ++e.errors, e.errors_off_layers += std::isnan(suitability[i]);
+    if (truth[i].error) ++e.errors, e.errors_off_layers += std::isnan(suitability[i]), e.batch_errors += records[i].error == "batch";
   }
   VerdictTally tally(truth, screen.tests.tests);
   e.screen = run_screen(screen, {&tally});
   auto names = screen.tests.tests;
   names.push_back("combined");
-  for (std::size_t t = 0; t < names.size(); ++t) e.rows.push_back({names[t], measure_detection(tally.judged(t))});
+  for (std::size_t t = 0; t < names.size(); ++t)
+    for (const auto& slice : evaluation_slices())
+      e.rows.push_back({names[t], slice.name, measure_slice(slice, truth_of, tally.judged(t))});
   return e;
 }
 
@@ -160,15 +175,20 @@ void validate(const EvaluateOptions& e) {
     throw UsageError("--two-population-share must be between 0 and 1");
   if (!(e.unsuitable_below > 0 && e.unsuitable_below < 1)) throw UsageError("--unsuitable-below must be between 0 and 1");
   if (e.study_cells < 100) throw UsageError("--study-cells must be at least 100");
+  if (!(e.batch_taxa_share >= 0 && e.batch_taxa_share <= 1)) throw UsageError("--batch-taxa-share must be between 0 and 1");
+  if (!(e.batch_share_low > 0 && e.batch_share_high >= e.batch_share_low && e.batch_share_high <= 0.5))
+    throw UsageError("--batch-share must be LOW-HIGH with 0 < LOW <= HIGH <= 0.5, e.g. 0.12-0.25");
+  if (e.batch_places_low < 1 || e.batch_places_high < e.batch_places_low)
+    throw UsageError("--batch-places must be MIN-MAX with 1 <= MIN <= MAX, e.g. 1-3");
 }
 
 void write_evaluation(const std::string& path, const Evaluation& e) {
   CsvWriter out(path);
-  out.row({"test", "errors", "errors_unsuitable", "clean", "flagged_errors", "flagged_unsuitable", "flagged_clean",
+  out.row({"test", "slice", "errors", "errors_unsuitable", "clean", "flagged_errors", "flagged_unsuitable", "flagged_clean",
            "recall_unsuitable", "recall_all", "false_flag_rate", "precision", "average_precision"});
   for (const auto& r : e.rows) {
     const DetectionMetrics& m = r.metrics;
-    out.row({r.test, std::to_string(m.errors), std::to_string(m.errors_unsuitable), std::to_string(m.clean),
+    out.row({r.test, r.slice, std::to_string(m.errors), std::to_string(m.errors_unsuitable), std::to_string(m.clean),
              std::to_string(m.flagged_errors), std::to_string(m.flagged_unsuitable), std::to_string(m.flagged_clean),
              ratio_text(m.recall_unsuitable), ratio_text(m.recall_all), ratio_text(m.false_flag_rate),
              ratio_text(m.precision), ratio_text(m.average_precision)});

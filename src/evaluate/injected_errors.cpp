@@ -32,4 +32,22 @@ void inject_errors(std::vector<VirtualRecord>& records, const StudyArea& area, d
   }
 }
 
+void inject_batch(std::vector<VirtualRecord>& records, const StudyArea& area, double share, std::size_t places,
+                  SeededRandom& random) {
+  std::vector<std::size_t> clean;
+  for (std::size_t i = 0; i < records.size(); ++i)
+    if (records[i].error.empty()) clean.push_back(i);
+  if (clean.size() < 2 || places == 0) return;
+  const auto count = std::clamp<std::size_t>(static_cast<std::size_t>(std::lround(share * static_cast<double>(records.size()))), 1,
+                                             clean.size() / 2);
+  for (std::size_t i = 0; i < count; ++i) std::swap(clean[i], clean[i + random.below(clean.size() - i)]);
+  std::vector<std::size_t> cells;
+  for (std::size_t k = 0; k < places; ++k) cells.push_back(random.below(area.longitude.size()));
+  for (std::size_t k = 0; k < count; ++k) {
+    VirtualRecord& r = records[clean[k]];
+    r.error = "batch";
+    r.longitude = area.longitude[cells[k % places]], r.latitude = area.latitude[cells[k % places]];
+  }
+}
+
 }  // namespace envsift

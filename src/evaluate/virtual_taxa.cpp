@@ -136,6 +136,7 @@ std::vector<VirtualTaxon> make_virtual_taxa(const StudyArea& area, const Virtual
     v.name = name;
     v.responses.push_back(random_response(area, random.below(cells), o.width_low, o.width_high, random));
     draw(area, v.responses[0], size, random, v.cells);
+    v.population.assign(v.cells.size(), 0);
     taxa.push_back(std::move(v));
   }
   return taxa;
@@ -161,6 +162,8 @@ VirtualTaxon two_population_taxon(const StudyArea& area, std::size_t records, do
   const auto second = static_cast<std::size_t>(std::lround(second_share * static_cast<double>(records)));
   draw(area, v.responses[0], records - second, random, v.cells);
   draw(area, v.responses[1], second, random, v.cells);
+  v.population.assign(v.cells.size(), 0);
+  std::fill(v.population.end() - static_cast<std::ptrdiff_t>(second), v.population.end(), 1);
   return v;
 }
 

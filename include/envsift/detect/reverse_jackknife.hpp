@@ -16,6 +16,7 @@ class ReverseJackknife : public PerLayerDetector {
   explicit ReverseJackknife(ReverseJackknifeOptions options = {})
       : PerLayerDetector(options.min_records, options.common_share) {}
   static constexpr const char* kName = "reverse_jackknife";
+  static constexpr std::size_t kMinimumValues = 20;  // reverse_jackknife.cpp says why
   std::string name() const override { return kName; }
   bool flags_its_bounds() const override { return true; }
 

@@ -34,6 +34,9 @@ class RobustZ : public PerLayerDetector {
 // Centre and robust spread of the finite values: the median, and 1.4826 · MAD, or — when more
 // than half the values are equal and MAD = 0 — 1.253314 · mean absolute deviation from the
 // median. `spread` is 0 only when all values are equal; both are NaN for no values.
+// The cutoff for a taxon of n values: `cutoff` · (1 + 6/n + 30/n²) (robust_z.cpp says why).
+double small_sample_cutoff(double cutoff, std::size_t n);
+
 struct RobustSpread {
   double median;
   double spread;

@@ -41,6 +41,7 @@ struct VirtualTaxon {
   std::string name;
   std::vector<Response> responses;  // one, or two for a taxon with two populations
   std::vector<std::size_t> cells;   // the study-area cell of each record
+  std::vector<std::uint8_t> population;  // of each record: 0, or 1 for the second population
   double suitability(const Eigen::VectorXd& x) const;  // NaN values: NaN
 };
 
@@ -48,7 +49,7 @@ struct VirtualTaxaOptions {
   std::size_t taxa = 40;
   std::size_t min_records = 12, max_records = 3000;  // sizes log-uniform in between
   double width_low = 0.1, width_high = 0.4;           // σ_l / SD_l
-  double two_population_share = 0.2;  // this share of the taxa have two populations (30-50 % in the second)
+  double two_population_share = 0.25;  // this share of the taxa have two populations (30-50 % in the second)
   std::uint64_t seed = 1;
 };
 
