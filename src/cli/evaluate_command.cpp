@@ -46,17 +46,17 @@ int evaluate_command(int argc, char** argv) {
     ("response-width", po::value<std::string>()->default_value("0.1-0.4")->value_name("LOW-HIGH"),
      "width of each taxon's Gaussian response to a layer, in SDs of that layer over the study area, uniform "
      "between LOW and HIGH (broad responses give taxa the skew of the landscape)")
-    ("two-population-share", po::value(&e.taxa.two_population_share)->default_value(e.taxa.two_population_share)->value_name("S"),
+    ("two-population-share", po::value(&e.taxa.two_population_share)->default_value(e.taxa.two_population_share, number_text(e.taxa.two_population_share))->value_name("S"),
      "share of the taxa with two populations in different environments (30-50 % of records in the second)")
-    ("error-share", po::value(&e.error_share)->default_value(e.error_share)->value_name("S"),
+    ("error-share", po::value(&e.error_share)->default_value(e.error_share, number_text(e.error_share))->value_name("S"),
      "share of each taxon's records given a single error (at least one)")
-    ("batch-taxa-share", po::value(&e.batch_taxa_share)->default_value(e.batch_taxa_share, "0.33")->value_name("S"),
+    ("batch-taxa-share", po::value(&e.batch_taxa_share)->default_value(e.batch_taxa_share, number_text(e.batch_taxa_share))->value_name("S"),
      "share of the taxa that also get a batch of errors: records moved together to one to a few wrong places")
     ("batch-share", po::value<std::string>()->default_value("0.12-0.25")->value_name("LOW-HIGH"),
      "a batch holds this share of its taxon's records, uniform between LOW and HIGH")
     ("batch-places", po::value<std::string>()->default_value("1-3")->value_name("MIN-MAX"),
      "a batch's records are spread over this many wrong places (random cells)")
-    ("unsuitable-below", po::value(&e.unsuitable_below)->default_value(e.unsuitable_below)->value_name("S"),
+    ("unsuitable-below", po::value(&e.unsuitable_below)->default_value(e.unsuitable_below, number_text(e.unsuitable_below))->value_name("S"),
      "an error moved the record into unsuitable environment when the taxon's suitability there is below S "
      "(suitability is 1 at the optimum)")
     ("study-cells", po::value(&e.study_cells)->default_value(e.study_cells)->value_name("N"),

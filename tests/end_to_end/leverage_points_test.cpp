@@ -29,7 +29,7 @@ TEST(LeveragePoints, HawkinsBraduKassRankInTheOrderOfTheirRobustDistances) {
     csv += "row" + std::to_string(i + 1) + "," + hbk.rows[i][0] + "," + hbk.rows[i][1] + "," + hbk.rows[i][2] + "\n";
   write_file(dir + "/hbk.csv", csv);
   const auto r = run(envsift_binary() + " screen --points " + dir + "/hbk.csv --value-columns X1,X2,X3 --single-taxon" +
-                     " --tests mahalanobis_robust --out " + dir + "/out.csv");
+                     " --tests mahalanobis_robust --report " + dir + "/report.html --out " + dir + "/out.csv");
   ASSERT_EQ(r.exit_code, 0) << r.output;
   const Table out = read_csv(dir + "/out.csv");
   ASSERT_EQ(out.rows.size(), 75u);
@@ -51,6 +51,12 @@ TEST(LeveragePoints, HawkinsBraduKassRankInTheOrderOfTheirRobustDistances) {
     EXPECT_NE(row[out.column("score")], previous_score);  // distinct severities
     previous_score = row[out.column("score")];
   }
+  // the report shows the withheld group together, each marked as withheld
+  const std::string report = read_file(dir + "/report.html");
+  EXPECT_NE(report.find("Review them as a group"), std::string::npos);
+  std::size_t marked = 0;
+  for (auto at = report.find("withheld mahalanobis_robust"); at != std::string::npos; at = report.find("withheld mahalanobis_robust", at + 1)) ++marked;
+  EXPECT_EQ(marked, 14u);  // the top-suspects table lists the 14, and no other record
   const auto off = run(envsift_binary() + " screen --points " + dir + "/hbk.csv --value-columns X1,X2,X3 --single-taxon" +
                        " --tests mahalanobis_robust --max-flagged-share 1 --out " + dir + "/off.csv");
   ASSERT_EQ(off.exit_code, 0) << off.output;
