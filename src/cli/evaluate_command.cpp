@@ -1,4 +1,6 @@
+#include <cmath>
 #include <cstdio>
+#include <type_traits>
 #include <iostream>
 
 #include "commands.hpp"
@@ -19,6 +21,18 @@ std::vector<OptionSpec> screen_options_for_evaluation() {
       if (o.name == "layers" || o.name == "method" || o.name == "assume-crs" || o.name == "threads") options.push_back(o);
   options.insert(options.end(), test_options().begin(), test_options().end());
   return options;
+}
+
+// A LOW-HIGH option into two numbers (whole ones for a count); its bounds are validate()'s.
+template <class Number>
+void read_range(const po::variables_map& vm, const std::string& name, const std::string& rule, Number& low, Number& high) {
+  const std::string text = vm[name].as<std::string>();
+  double a = 0, b = 0;
+  char rest = 0;
+  if (std::sscanf(text.c_str(), "%lf-%lf%c", &a, &b, &rest) != 2 || !(a >= 0) || !(b >= 0) ||
+      (std::is_integral<Number>::value && (a != std::floor(a) || b != std::floor(b) || b > 1e12)))
+    throw UsageError("--" + name + " must be " + rule + ", not '" + text + "'");
+  low = static_cast<Number>(a), high = static_cast<Number>(b);
 }
 
 }  // namespace
@@ -74,22 +88,10 @@ int evaluate_command(int argc, char** argv) {
   check_options(sampling_options(), o);
   apply_process_settings(o.sampling);
   e.taxa.seed = o.tests.seed;
-  const std::string range = vm["taxon-records"].as<std::string>();
-  unsigned long low = 0, high = 0;
-  if (std::sscanf(range.c_str(), "%lu-%lu", &low, &high) != 2)
-    throw UsageError("--taxon-records must be MIN-MAX with 3 <= MIN <= MAX, e.g. 12-3000, not '" + range + "'");
-  e.taxa.min_records = low, e.taxa.max_records = high;
-  const std::string widths = vm["response-width"].as<std::string>();
-  if (std::sscanf(widths.c_str(), "%lf-%lf", &e.taxa.width_low, &e.taxa.width_high) != 2)
-    throw UsageError("--response-width must be LOW-HIGH with 0 < LOW <= HIGH, e.g. 0.1-0.4, not '" + widths + "'");
-  const std::string batch_share = vm["batch-share"].as<std::string>();
-  if (std::sscanf(batch_share.c_str(), "%lf-%lf", &e.batch_share_low, &e.batch_share_high) != 2)
-    throw UsageError("--batch-share must be LOW-HIGH with 0 < LOW <= HIGH <= 0.5, e.g. 0.12-0.25, not '" + batch_share + "'");
-  const std::string batch_places = vm["batch-places"].as<std::string>();
-  unsigned long fewest = 0, most = 0;
-  if (std::sscanf(batch_places.c_str(), "%lu-%lu", &fewest, &most) != 2)
-    throw UsageError("--batch-places must be MIN-MAX with 1 <= MIN <= MAX, e.g. 1-3, not '" + batch_places + "'");
-  e.batch_places_low = fewest, e.batch_places_high = most;
+  read_range(vm, "taxon-records", "MIN-MAX with 3 <= MIN <= MAX, e.g. 12-3000", e.taxa.min_records, e.taxa.max_records);
+  read_range(vm, "response-width", "LOW-HIGH with 0 < LOW <= HIGH, e.g. 0.1-0.4", e.taxa.width_low, e.taxa.width_high);
+  read_range(vm, "batch-share", "LOW-HIGH with 0 < LOW <= HIGH <= 0.5, e.g. 0.12-0.25", e.batch_share_low, e.batch_share_high);
+  read_range(vm, "batch-places", "MIN-MAX with 1 <= MIN <= MAX, e.g. 1-3", e.batch_places_low, e.batch_places_high);
   validate(e);
 
   const Evaluation result = run_evaluation(e);
