@@ -84,7 +84,8 @@ ReducedSpace reduce(const Eigen::MatrixXd& complete, const MahalanobisOptions& o
   return space;
 }
 
-Estimate Mahalanobis::estimate(const Eigen::MatrixXd& scores, std::uint64_t) const {
+Estimate Mahalanobis::estimate(const Eigen::MatrixXd& scores, const Eigen::MatrixXd&, const Eigen::MatrixXd&,
+                               std::uint64_t) const {
   Estimate e;
   e.center = scores.colwise().mean().transpose();
   const Eigen::MatrixXd centred = scores.rowwise() - e.center.transpose();
@@ -213,11 +214,12 @@ std::vector<Finding> Mahalanobis::judge_values(const TaxonValues& taxon) const {
     }
     return z;
   };
-  Eigen::MatrixXd scores(complete.rows(), static_cast<Eigen::Index>(k));
+  Eigen::MatrixXd standardised(complete.rows(), used);
   for (Eigen::Index r = 0; r < complete.rows(); ++r)
-    scores.row(r) = (space.basis.transpose() * standardise([&](Eigen::Index l) { return complete(r, l); })).transpose();
+    standardised.row(r) = standardise([&](Eigen::Index l) { return complete(r, l); }).transpose();
+  const Eigen::MatrixXd scores = standardised * space.basis;
 
-  const Estimate est = estimate(scores, taxon.seed);
+  const Estimate est = estimate(scores, standardised, space.basis, taxon.seed);
   const Precision precision = pseudo_inverse(est.scatter, options_.eigen_floor);
   if (precision.rank == 0) return untested(rows, "no_spread:" + name());
   const Eigen::MatrixXd layer_precision = space.basis * precision.matrix * space.basis.transpose();

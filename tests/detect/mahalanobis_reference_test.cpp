@@ -1,7 +1,8 @@
 // Classical and robust Mahalanobis distances against R: stats::mahalanobis (Debian r-base-core)
 // and robustbase::covMcd(use.correction = FALSE) (Debian r-cran-robustbase 0.95), on data sets
 // that ship with them (stackloss and swiss from R's datasets; hbk and starsCYG from
-// robustbase). Fixtures and the script that made them: tests/reference/mahalanobis/.
+// robustbase), and the deterministic MCD against covMcd(nsamp = "deterministic") (Hubert,
+// Rousseeuw & Verdonck 2012). Fixtures and the script that made them: tests/reference/mahalanobis/.
 // The set of flagged observations must match exactly; estimates and distances to 1e-7 relative.
 #include <cmath>
 
@@ -11,6 +12,7 @@
 
 #include "../support.hpp"
 #include "envsift/detect/chi_square.hpp"
+#include "envsift/detect/deterministic_mcd.hpp"
 #include "envsift/detect/fast_mcd.hpp"
 #include "envsift/detect/robust_mahalanobis.hpp"
 
@@ -19,17 +21,44 @@ namespace {
 
 using namespace envsift::testing;
 
+struct Estimates {
+  Eigen::VectorXd center, raw_center;
+  Eigen::MatrixXd cov, raw_cov;
+};
+
 struct Fixture {
   Eigen::MatrixXd x;
   std::vector<std::string> names;
   Eigen::VectorXd classical_d2, robust_d2, center, raw_center;
   Eigen::MatrixXd cov, raw_cov;
+  Estimates deterministic;              // covMcd(nsamp = "deterministic")
+  Eigen::VectorXd deterministic_d2;     // robust D² from it
+  std::vector<bool> deterministic_flagged, deterministic_best;
 };
+
+// NAME-mcd.csv / NAME-detmcd.csv: "center", "raw_center", p covariance rows, p raw ones.
+Estimates load_estimates(const std::string& path, Eigen::Index p) {
+  const Table mcd = read_csv(path);
+  auto vec = [&](std::size_t r) {
+    Eigen::VectorXd v(p);
+    for (Eigen::Index j = 0; j < p; ++j) v[j] = std::stod(mcd.rows[r][static_cast<std::size_t>(j + 1)]);
+    return v;
+  };
+  Estimates e;
+  e.center = vec(0);
+  e.raw_center = vec(1);
+  e.cov.resize(p, p);
+  e.raw_cov.resize(p, p);
+  for (Eigen::Index r = 0; r < p; ++r) {
+    e.cov.row(r) = vec(static_cast<std::size_t>(2 + r)).transpose();
+    e.raw_cov.row(r) = vec(static_cast<std::size_t>(2 + p + r)).transpose();
+  }
+  return e;
+}
 
 Fixture load(const std::string& name) {
   const std::string dir = source_path("tests/reference/mahalanobis/");
   const Table data = read_csv(dir + name + ".csv");
-  const Table mcd = read_csv(dir + name + "-mcd.csv");
   Fixture f;
   const auto p = static_cast<Eigen::Index>(data.header.size() - 3);
   const auto n = static_cast<Eigen::Index>(data.rows.size());
@@ -43,18 +72,16 @@ Fixture load(const std::string& name) {
     f.classical_d2[i] = std::stod(row[static_cast<std::size_t>(p)]);
     f.robust_d2[i] = std::stod(row[static_cast<std::size_t>(p + 1)]);
   }
-  auto vec = [&](std::size_t r) {
-    Eigen::VectorXd v(p);
-    for (Eigen::Index j = 0; j < p; ++j) v[j] = std::stod(mcd.rows[r][static_cast<std::size_t>(j + 1)]);
-    return v;
-  };
-  f.center = vec(0);
-  f.raw_center = vec(1);
-  f.cov.resize(p, p);
-  f.raw_cov.resize(p, p);
-  for (Eigen::Index r = 0; r < p; ++r) {
-    f.cov.row(r) = vec(static_cast<std::size_t>(2 + r)).transpose();
-    f.raw_cov.row(r) = vec(static_cast<std::size_t>(2 + p + r)).transpose();
+  const Estimates fast = load_estimates(dir + name + "-mcd.csv", p);
+  f.center = fast.center, f.raw_center = fast.raw_center, f.cov = fast.cov, f.raw_cov = fast.raw_cov;
+  f.deterministic = load_estimates(dir + name + "-detmcd.csv", p);
+  const Table det = read_csv(dir + name + "-detmcd-d2.csv");
+  f.deterministic_d2.resize(n);
+  for (Eigen::Index i = 0; i < n; ++i) {
+    const auto& row = det.rows[static_cast<std::size_t>(i)];
+    f.deterministic_d2[i] = std::stod(row[0]);
+    f.deterministic_flagged.push_back(row[2] == "1");
+    f.deterministic_best.push_back(row[3] == "1");
   }
   return f;
 }
@@ -96,9 +123,15 @@ TEST_P(MahalanobisReference, ClassicalDistancesMatchStatsMahalanobis) {
 // optimum subset is unique, the raw estimates are the same. quakes (n = 1000, with many tied
 // values) has near-equivalent subsets whose log det differ by ~1e-5: there the raw estimates may
 // differ, but the reweighted ones — what envsift uses — agree.
+McdOptions fast_engine() {
+  McdOptions o;
+  o.engine = McdEngine::fast;
+  return o;
+}
+
 TEST_P(MahalanobisReference, FastMcdMatchesCovMcd) {
   const Fixture f = load(GetParam());
-  McdOptions o;
+  McdOptions o = fast_engine();
   o.seed = 1;
   const McdResult r = fast_mcd(f.x, o);
   EXPECT_EQ(r.h, static_cast<std::size_t>((f.x.rows() + f.x.cols() + 1) / 2));
@@ -116,7 +149,7 @@ TEST_P(MahalanobisReference, FastMcdMatchesCovMcd) {
 // get the same verdict.
 TEST(MahalanobisReferenceLarge, SubsampledStartsReachANearlyEqualOptimum) {
   const Fixture f = load("quakes");
-  McdOptions o;
+  McdOptions o = fast_engine();
   o.subsample = 300;
   const McdResult r = fast_mcd(f.x, o);
   const double mine = std::log(r.raw_scatter.determinant()), theirs = std::log(f.raw_cov.determinant());
@@ -132,11 +165,36 @@ TEST(MahalanobisReferenceLarge, SubsampledStartsReachANearlyEqualOptimum) {
 
 TEST_P(MahalanobisReference, RobustDistancesAndFlagsMatchCovMcd) {
   const Fixture f = load(GetParam());
-  const auto findings = RobustMahalanobis(keep_all_dimensions()).judge({f.x, f.x, f.names, 1});
+  const auto findings = RobustMahalanobis(keep_all_dimensions(), fast_engine()).judge({f.x, f.x, f.names, 1});
   expect_close(statistics(findings), f.robust_d2, 1e-7, "robust D²");
   const double cutoff = chi_square_quantile(static_cast<double>(f.x.cols()), 0.975);
   for (std::size_t i = 0; i < findings.size(); ++i)
     EXPECT_EQ(findings[i].flagged, f.robust_d2[static_cast<Eigen::Index>(i)] > cutoff) << "row " << i + 1;
+}
+
+// DetMCD: the same best h-subset as covMcd(nsamp = "deterministic"), hence the same raw and
+// reweighted estimates (to rounding: R standardises with a Qn rounded to single precision, see
+// robust_scale_test.cpp, which moves nothing but the last bits).
+TEST_P(MahalanobisReference, DeterministicMcdMatchesCovMcdDeterministic) {
+  const Fixture f = load(GetParam());
+  const McdResult r = deterministic_mcd(f.x, McdOptions{});
+  std::vector<bool> best(static_cast<std::size_t>(f.x.rows()));
+  for (std::size_t i : r.subset) best[i] = true;
+  EXPECT_EQ(best, f.deterministic_best);
+  EXPECT_FALSE(r.exact_fit);
+  expect_close(r.raw_center, f.deterministic.raw_center, 1e-9, "raw centre");
+  expect_close(r.raw_scatter, f.deterministic.raw_cov, 1e-9, "raw scatter");
+  expect_close(r.center, f.deterministic.center, 1e-9, "centre");
+  expect_close(r.scatter, f.deterministic.cov, 1e-9, "scatter");
+}
+
+// The test as run (deterministic engine, the default): distances and the flagged set.
+TEST_P(MahalanobisReference, DefaultRobustTestMatchesCovMcdDeterministic) {
+  const Fixture f = load(GetParam());
+  const auto findings = RobustMahalanobis(keep_all_dimensions()).judge({f.x, f.x, f.names, 1});
+  expect_close(statistics(findings), f.deterministic_d2, 1e-7, "robust D²");
+  for (std::size_t i = 0; i < findings.size(); ++i)
+    EXPECT_EQ(findings[i].flagged, f.deterministic_flagged[i]) << "row " << i + 1;
 }
 
 INSTANTIATE_TEST_SUITE_P(RDataSets, MahalanobisReference,

@@ -9,7 +9,13 @@
 
 namespace envsift {
 
+// Where the C-steps start: the six deterministic estimates of DetMCD (deterministic_mcd.hpp,
+// the default: fast, the same result every time) or FAST-MCD's random (p+1)-subsets (which also
+// handles exact fits, and is kept for comparison).
+enum class McdEngine { deterministic, fast };
+
 struct McdOptions {
+  McdEngine engine = McdEngine::deterministic;
   std::size_t starts = 500;        // random (p+1)-subsets tried
   std::size_t finalists = 10;      // best starts iterated to convergence on all rows
   std::size_t subsample = 1500;    // larger data: starts are screened on this many random rows…

@@ -35,8 +35,11 @@ class Mahalanobis : public Detector {
   std::vector<Finding> judge(const TaxonValues& taxon) const final;
 
  protected:
-  // Location and scatter of the reference scores (rows × dimensions).
-  virtual Estimate estimate(const Eigen::MatrixXd& scores, std::uint64_t seed) const;
+  // Location and scatter of the reference scores (rows × dimensions). `standardised` holds the
+  // same rows on the standardised layers and `basis` maps them to scores (scores = standardised ·
+  // basis); an estimator that is not rotation-equivariant may work on those instead.
+  virtual Estimate estimate(const Eigen::MatrixXd& scores, const Eigen::MatrixXd& standardised,
+                            const Eigen::MatrixXd& basis, std::uint64_t seed) const;
   const MahalanobisOptions& options() const { return options_; }
 
  private:

@@ -1,6 +1,7 @@
 // Robust Mahalanobis distance: the same test as mahalanobis.hpp with the taxon's centre and
-// scatter estimated by reweighted FAST-MCD (fast_mcd.hpp), so that the outliers themselves
-// cannot pull the centre towards them or inflate the scatter (masking).
+// scatter estimated by the reweighted MCD (deterministic_mcd.hpp by default, FAST-MCD on
+// request), so that the outliers themselves cannot pull the centre towards them or inflate the
+// scatter (masking).
 #pragma once
 #include "envsift/detect/fast_mcd.hpp"
 #include "envsift/detect/mahalanobis.hpp"
@@ -14,7 +15,8 @@ class RobustMahalanobis : public Mahalanobis {
   std::string name() const override { return kName; }
 
  protected:
-  Estimate estimate(const Eigen::MatrixXd& scores, std::uint64_t seed) const override;
+  Estimate estimate(const Eigen::MatrixXd& scores, const Eigen::MatrixXd& standardised, const Eigen::MatrixXd& basis,
+                    std::uint64_t seed) const override;
 
  private:
   McdOptions mcd_;

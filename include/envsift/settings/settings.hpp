@@ -47,6 +47,7 @@ struct TestSettings {
   double max_flagged_share = 0.15;    // population guard
   double z_cutoff = 3.0;              // robust_z
   double chi2_quantile = 0.975;       // mahalanobis, mahalanobis_robust
+  std::string mcd_start = "deterministic";  // mahalanobis_robust: deterministic | random
 };
 
 // The reported elevation against a DEM layer.

@@ -7,7 +7,7 @@
 #include <Eigen/Eigenvalues>
 
 #include "envsift/detect/chi_square.hpp"
-#include "envsift/detect/fast_mcd.hpp"
+#include "envsift/detect/deterministic_mcd.hpp"
 #include "envsift/detect/robust_z.hpp"
 #include "envsift/write/report/svg_canvas.hpp"
 
@@ -145,7 +145,7 @@ LayerPair choose_pair(const TaxonPicture& t, std::uint64_t seed, std::size_t min
   }
   McdOptions options;
   options.seed = seed;
-  const McdResult mcd = fast_mcd(x, options);
+  const McdResult mcd = minimum_covariance_determinant(x, options);  // DetMCD: cheap enough for every section
   if (mcd.exact_fit || !(mcd.scatter.determinant() > 0)) return pair;
   pair.has_ellipse = true;
   pair.center = mcd.center;
