@@ -5,6 +5,7 @@
 #pragma once
 #include <cstdint>
 #include <map>
+#include <memory>
 #include <string>
 #include <vector>
 
@@ -43,6 +44,9 @@ struct RecordTable {
   std::map<std::size_t, std::vector<std::string>> notes;  // per record, rare: words for `reasons` (a capped disc)
   std::vector<std::string> warnings;                      // for stderr
   std::vector<std::pair<std::string, double>> seconds;    // time per stage
+  // The layers, still open (with their block cache) for the landscape test's sample; released
+  // after sampling when no test needs it. Empty for value columns.
+  std::shared_ptr<RasterStack> stack;
 
   std::size_t size() const { return points.records.size(); }
   std::vector<std::string> layer_names() const;

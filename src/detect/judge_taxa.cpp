@@ -25,9 +25,21 @@ std::vector<JudgedTaxon> judge_taxa(const JudgingInput& in, const std::vector<st
   std::stable_sort(order.begin(), order.end(),
                    [&](std::size_t a, std::size_t b) { return groups[a].records.size() > groups[b].records.size(); });
   std::vector<std::exception_ptr> errors(groups.size());
+  const bool wants_landscape =
+      in.landscape && std::any_of(detectors.begin(), detectors.end(), [](const auto& d) { return d->uses_landscape(); });
+  const std::size_t batch = wants_landscape ? std::max<std::size_t>(in.landscape_batch, 1) : std::max<std::size_t>(order.size(), 1);
+  for (std::size_t first = 0; first < order.size(); first += batch) {
+   const std::size_t last = std::min(order.size(), first + batch);
+   std::vector<LandscapeValues> landscapes;
+   if (wants_landscape) {
+    std::vector<const TaxonGroup*> taxa;
+    for (std::size_t k = first; k < last; ++k) taxa.push_back(&groups[order[k]]);
+    landscapes = in.landscape(taxa);
+   }
 #pragma omp parallel for schedule(dynamic, 1)
-  for (std::ptrdiff_t k = 0; k < static_cast<std::ptrdiff_t>(order.size()); ++k) {
+  for (std::ptrdiff_t k = static_cast<std::ptrdiff_t>(first); k < static_cast<std::ptrdiff_t>(last); ++k) {
    const std::size_t index = order[static_cast<std::size_t>(k)];
+   const LandscapeValues* landscape = wants_landscape ? &landscapes[static_cast<std::size_t>(k) - first] : nullptr;
    try {
     const TaxonGroup& g = groups[index];
     const auto rows = static_cast<Eigen::Index>(g.records.size());
@@ -58,7 +70,8 @@ std::vector<JudgedTaxon> judge_taxa(const JudgingInput& in, const std::vector<st
     const Eigen::MatrixXd reference = pick(records, reference_rows);
 
     const std::uint64_t taxon_seed = stable_hash(g.taxon, seed ^ kFnvBasis);
-    auto judge = [&](const TaxonValues& values) {
+    auto judge = [&](TaxonValues values) {
+      values.landscape = landscape;
       std::vector<std::vector<Finding>> found;
       for (std::size_t t = 0; t < detectors.size(); ++t) {
         const Stopwatch clock;
@@ -100,6 +113,7 @@ std::vector<JudgedTaxon> judge_taxa(const JudgingInput& in, const std::vector<st
    } catch (...) {
     errors[index] = std::current_exception();
    }
+  }
   }
   for (auto& e : errors)
     if (e) std::rethrow_exception(e);  // the first taxon's, by name: the same for any thread count

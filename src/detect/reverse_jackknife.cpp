@@ -142,7 +142,6 @@ namespace envsift {
 TestEntry reverse_jackknife_entry() {
   TestEntry e;
   e.name = ReverseJackknife::kName;
-  e.is_default = true;
   e.help = "one layer at a time, a gap cutting off a tail;";
   e.describe = [](const ScreenSettings& s) {
     return std::string(ReverseJackknife::kName) +

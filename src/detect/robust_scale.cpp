@@ -42,17 +42,27 @@ double kth_pairwise_difference(const std::vector<double>& y, std::size_t k) {
       std::nth_element(rest.begin(), rest.begin() + static_cast<std::ptrdiff_t>(k - 1 - below), rest.end());
       return rest[k - 1 - below];
     }
+    // the weighted median of the rows' middle candidates (weights: the rows' candidate counts)
     middles.clear();
     for (std::size_t i = 0; i < n; ++i)
       if (right[i] > left[i]) middles.emplace_back(y[(left[i] + right[i] - 1) / 2] - y[i], right[i] - left[i]);
-    std::sort(middles.begin(), middles.end());
-    std::size_t weight = 0;
-    double trial = middles.back().first;
-    for (const auto& [value, w] : middles)
-      if ((weight += w) * 2 >= candidates) {
-        trial = value;
+    double trial = 0;
+    for (std::size_t lo = 0, hi = middles.size(), wanted = (candidates + 1) / 2;;) {  // selection on [lo, hi)
+      const std::size_t mid = lo + (hi - lo) / 2;
+      std::nth_element(middles.begin() + static_cast<std::ptrdiff_t>(lo), middles.begin() + static_cast<std::ptrdiff_t>(mid),
+                       middles.begin() + static_cast<std::ptrdiff_t>(hi));
+      std::size_t below_mid = 0;
+      for (std::size_t k = lo; k < mid; ++k) below_mid += middles[k].second;
+      if (below_mid >= wanted) {
+        hi = mid;
+      } else if (below_mid + middles[mid].second >= wanted) {
+        trial = middles[mid].first;
         break;
+      } else {
+        wanted -= below_mid + middles[mid].second;
+        lo = mid + 1;
       }
+    }
     // Per row: pairs with difference < trial and ≤ trial (as end positions of j).
     std::vector<std::size_t> less(n), at_most(n);
     std::size_t count_less = 0, count_at_most = 0, jl = 0, ja = 0;

@@ -11,6 +11,7 @@ TestEntry robust_z_entry();
 TestEntry reverse_jackknife_entry();
 TestEntry mahalanobis_entry();
 TestEntry robust_mahalanobis_entry();
+TestEntry landscape_entry();
 TestEntry reported_elevation_entry();
 
 // The registry: one line per test, in the order their columns are written.
@@ -20,6 +21,7 @@ const std::vector<TestEntry>& test_registry() {
       reverse_jackknife_entry(),
       mahalanobis_entry(),
       robust_mahalanobis_entry(),
+      landscape_entry(),
       reported_elevation_entry(),
   };
   return entries;
@@ -99,6 +101,13 @@ const std::vector<OptionSpec>& test_options() {
     v.push_back(seed_option("seed", "N", "seed of the randomised tests; the same seed gives the same output",
                             [](ScreenSettings& s) -> unsigned long long& { return s.tests.seed; }));
     v.push_back(choice_option(
+        "combine",
+        "how the tests' severities (1 at each test's cutoff) make a record's score, which ranks it. max: the most "
+        "severe test, so a score above 1 means a test flagged it; mean: the mean over the tests that judged it, so a "
+        "record several tests find far from its taxon ranks above one that a single test finds far. Flags are the "
+        "same either way",
+        [](ScreenSettings& s) -> std::string& { return s.tests.combine; }, {"max", "mean"}));
+    v.push_back(choice_option(
         "populations",
         "split: a taxon whose records form two separate groups in the layers' space (k-means with a density valley "
         "between the groups; each at least 20 % of the taxon) is judged as two populations, each on its own; one: "
@@ -131,11 +140,23 @@ std::vector<std::vector<std::string>> ActiveTests::extra_columns() const {
   return extras;
 }
 
+namespace {
+
+bool named(const ScreenSettings& s, const TestEntry& e) {
+  return std::find(s.tests.tests.begin(), s.tests.tests.end(), e.name) != s.tests.tests.end();
+}
+
+// A test that needs layers, with --value-columns: left out when the defaults are in use, refused
+// when asked for by name.
+bool inapplicable(const ScreenSettings& s, const TestEntry& e) { return e.needs_layers && !s.input.value_columns.empty(); }
+
+}  // namespace
+
 ActiveTests activate_tests(const ScreenSettings& s) {
   validate_tests(s);
   ActiveTests active;
   for (const auto& e : test_registry())
-    if (e.make_detector && std::find(s.tests.tests.begin(), s.tests.tests.end(), e.name) != s.tests.tests.end()) {
+    if (e.make_detector && named(s, e) && !inapplicable(s, e)) {
       active.detectors.push_back(e.make_detector(s));
       active.entries.push_back(&e);
     }
@@ -149,6 +170,10 @@ ActiveTests activate_tests(const ScreenSettings& s) {
 
 void validate_tests(const ScreenSettings& s) {
   check_options(test_options(), s);
+  if (s.tests.tests != default_test_names())
+    for (const auto& e : test_registry())
+      if (named(s, e) && inapplicable(s, e))
+        throw UsageError("--tests " + e.name + " needs layers (--layers), not --value-columns; leave it out of --tests");
   for (const auto& e : test_registry())
     if (e.validate) e.validate(s);
 }

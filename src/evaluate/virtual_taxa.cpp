@@ -13,7 +13,7 @@
 
 #include "envsift/detect/skew_scale.hpp"
 #include "envsift/errors.hpp"
-#include "envsift/evaluate/seeded_random.hpp"
+#include "envsift/seeded_random.hpp"
 #include "envsift/sample/raster_stack.hpp"
 
 namespace envsift {

@@ -1,8 +1,11 @@
 #include <algorithm>
 #include <cstdio>
 #include <mutex>
+#include <unordered_set>
 
 #include "envsift/detect/judge_taxa.hpp"
+#include "envsift/sample/landscape_sample.hpp"
+#include "envsift/settings/run_options.hpp"
 #include "envsift/score/population_guard.hpp"
 #include "envsift/write/value_format.hpp"
 #include "steps.hpp"
@@ -40,7 +43,7 @@ Judgement judge_records(RecordTable& t, const ActiveTests& tests, const Membersh
       if (m.mine[i]) checked[c] = tests.checks[c]->judge(i);
       findings.push_back(&checked[c]);
     }
-    Verdict v = combine(findings, names);
+    Verdict v = combine(findings, names, s.tests.combine == "mean" ? CombineRule::mean : CombineRule::max);
     if (const auto note = t.notes.find(i); note != t.notes.end())
       v.reasons.insert(v.reasons.end(), note->second.begin(), note->second.end());
     v.codes.erase(std::remove(v.codes.begin(), v.codes.end(), std::string()), v.codes.end());
@@ -79,8 +82,33 @@ Judgement judge_records(RecordTable& t, const ActiveTests& tests, const Membersh
   const Eigen::MatrixXd& judged_values = every_layer ? t.values : values;
   const Eigen::MatrixXd* judged_lower = !t.has_discs ? nullptr : every_layer ? &t.discs.min : &lower;
   const Eigen::MatrixXd* judged_upper = !t.has_discs ? nullptr : every_layer ? &t.discs.max : &upper;
+  JudgingInput input{judged_values, t.cells, m.taxon_of, m.taxon_names, m.eligible, layer_names, judged_lower, judged_upper};
+  std::unique_ptr<LandscapeSampler> sampler;
+  if (t.stack) {  // layers, not value columns: the landscape test can be given its landscape
+    LandscapeOptions o;
+    o.area = s.tests.landscape_area;
+    o.spread_factor = s.tests.landscape_spread;
+    o.min_radius_km = s.tests.landscape_min_km;
+    o.cells = s.tests.landscape_cells;
+    o.seed = s.tests.seed;
+    std::vector<std::size_t> judged_columns(judged.begin(), judged.end());
+    sampler = std::make_unique<LandscapeSampler>(*t.stack, t.layers, judged_columns, sampling_plan(s.sampling).method, o);
+    input.landscape = [&](const std::vector<const TaxonGroup*>& taxa) {
+      std::vector<TaxonPlaces> places(taxa.size());
+      for (std::size_t k = 0; k < taxa.size(); ++k) {
+        places[k].taxon = taxa[k]->taxon;
+        std::unordered_set<std::uint64_t> seen;
+        for (std::size_t i : taxa[k]->records) {
+          const auto& r = t.points.records[i];
+          if (!std::isfinite(r.longitude) || !std::isfinite(r.latitude) || !seen.insert(t.cells[i]).second) continue;
+          places[k].longitude.push_back(r.longitude), places[k].latitude.push_back(r.latitude);
+        }
+      }
+      return sampler->sample(places);
+    };
+  }
   judge_taxa(
-      {judged_values, t.cells, m.taxon_of, m.taxon_names, m.eligible, layer_names, judged_lower, judged_upper},
+      input,
       tests.detectors, !s.tests.all_records, s.tests.seed,
       [&](const JudgedTaxon& taxon, std::vector<std::vector<Finding>>& findings) {
         std::vector<std::uint64_t> places;

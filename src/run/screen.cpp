@@ -1,5 +1,7 @@
 #include "envsift/run/run.hpp"
 
+#include <algorithm>
+
 #include "envsift/errors.hpp"
 #include "envsift/run/output_paths.hpp"
 #include "envsift/run/validate.hpp"
@@ -29,7 +31,8 @@ RunSummary run_sample(const ScreenSettings& s) {
   const Stopwatch started;
   RunSummary summary;
   summary.screened = false;
-  const RecordTable t = run::read_and_sample(s, nullptr);
+  RecordTable t = run::read_and_sample(s, nullptr);
+  t.stack.reset();
   summary.seconds = t.seconds;
   summary.warnings = t.warnings;
   const RunContext run{s, t, nullptr, record_header(t, nullptr, s.outputs.column_prefix), settings_as_written(sample_options(), s)};
@@ -51,6 +54,8 @@ RunSummary run_screen(const ScreenSettings& s, const std::vector<RecordSink*>& e
   RunSummary summary;
 
   RecordTable t = run::read_and_sample(s, &tests);  // 1-2. read points, sample the layers
+  if (std::none_of(tests.detectors.begin(), tests.detectors.end(), [](const auto& d) { return d->uses_landscape(); }))
+    t.stack.reset();  // no landscape to draw: close the layers and free their block cache
   summary.seconds = t.seconds;
   clock.lap(summary.seconds, "sampling, total");
   const run::Membership membership = run::group_records(t, s);  // 3. group by taxon

@@ -91,7 +91,8 @@ RecordTable sample_records(const ScreenSettings& s, const std::vector<std::strin
     t.warnings.push_back("these " + std::to_string(n) + " records and " + std::to_string(specs.size()) + " layers need about " +
                          std::to_string(static_cast<long>(need_mb)) + " MB, more than --memory-limit " +
                          std::to_string(s.sampling.memory_limit_mb) + " MB; split the run with --shard I/N");
-  RasterStack stack(specs, plan.cache_bytes, s.input.assume_crs);
+  t.stack = std::make_shared<RasterStack>(specs, plan.cache_bytes, s.input.assume_crs);
+  RasterStack& stack = *t.stack;
   std::vector<double> lon(n), lat(n);
   for (std::size_t i = 0; i < n; ++i) {
     const bool kept = !keep || keep(t.points, i);
@@ -126,6 +127,7 @@ RecordTable sample_records(const ScreenSettings& s, const std::vector<std::strin
     t.discs = stack.sample_discs(lon, lat, t.radius_m);
     clock.lap(t.seconds, "uncertainty discs");
   }
+  stack.set_progress(nullptr);  // the landscape sample reports as part of screening
   return t;
 }
 

@@ -15,9 +15,11 @@ std::vector<std::string> Verdict::withheld() const {
   return tests;
 }
 
-Verdict combine(const std::vector<const Finding*>& findings, const std::vector<std::string>& names) {
+Verdict combine(const std::vector<const Finding*>& findings, const std::vector<std::string>& names, CombineRule rule) {
   Verdict v;
   std::vector<std::size_t> order;
+  double sum = 0;
+  std::size_t judged = 0;
   for (std::size_t t = 0; t < findings.size(); ++t) {
     const Finding& f = *findings[t];
     v.tests.push_back({f.tested, f.statistic, f.threshold, f.extras});
@@ -27,11 +29,13 @@ Verdict combine(const std::vector<const Finding*>& findings, const std::vector<s
     }
     v.codes.insert(v.codes.end(), f.codes.begin(), f.codes.end());
     v.score = std::max(v.score.value_or(0.0), f.severity);
+    sum += f.severity, ++judged;
     if (f.flagged) {
       v.flags.push_back(names[t]);
       order.push_back(t);
     }
   }
+  if (rule == CombineRule::mean && judged > 0) v.score = sum / static_cast<double>(judged);
   std::stable_sort(order.begin(), order.end(),
                    [&](std::size_t a, std::size_t b) { return findings[a]->severity > findings[b]->severity; });
   for (std::size_t t : order)

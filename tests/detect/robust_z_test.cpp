@@ -8,7 +8,7 @@
 
 #include <gtest/gtest.h>
 
-#include "envsift/evaluate/seeded_random.hpp"
+#include "envsift/seeded_random.hpp"
 
 #include "../support.hpp"
 

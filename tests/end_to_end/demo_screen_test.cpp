@@ -38,8 +38,8 @@ TEST(DemoScreen, PlantedErrorsRankFirstAndNoRecordIsLost) {
                                          "rainfall_mean", "rainfall_max", "dry_months", "dry_months_min",
                                          "dry_months_mean", "dry_months_max", "status", "rank", "score",
                                          "flags", "reasons", "robust_z_stat", "robust_z_cutoff",
-                                         "reverse_jackknife_stat", "reverse_jackknife_cutoff", "mahalanobis_stat",
-                                         "mahalanobis_cutoff", "mahalanobis_dims"};
+                                         "mahalanobis_stat", "mahalanobis_cutoff", "mahalanobis_dims",
+                                         "landscape_stat", "landscape_cutoff", "landscape_area_share"};
   ASSERT_TRUE(std::equal(tail.begin(), tail.end(), out.header.begin() + static_cast<long>(in.header.size())));
 
   std::map<std::string, const std::vector<std::string>*> by_id;
@@ -52,7 +52,7 @@ TEST(DemoScreen, PlantedErrorsRankFirstAndNoRecordIsLost) {
       ++planted;
       ASSERT_FALSE(row[rank].empty()) << t[0];
       EXPECT_LE(std::stoul(row[rank]), 5u) << t[0] << " (" << t[1] << ")";
-      EXPECT_EQ(row[flags], "robust_z;reverse_jackknife;mahalanobis") << t[0];  // every default test
+      EXPECT_EQ(row[flags].substr(0, 30), "robust_z;mahalanobis;landscape") << t[0];  // every default test
     } else {  // an input problem: kept, unranked, its reason code first in the status
       EXPECT_TRUE(row[rank].empty()) << t[0];
       EXPECT_EQ(row[status].substr(0, t[1].size()), t[1]) << t[0];
@@ -87,7 +87,7 @@ TEST(DemoScreen, SmallTaxonIsNotJudged) {
   for (const auto& row : out.rows)
     if (row[1] == "Petricola rara") {
       EXPECT_EQ(row[out.column("status")],
-                "too_few_records:robust_z;too_few_records:reverse_jackknife;too_few_records:mahalanobis");
+                "too_few_records:robust_z;too_few_records:mahalanobis;too_few_records:landscape");
       EXPECT_TRUE(row[out.column("rank")].empty());
     }
 }

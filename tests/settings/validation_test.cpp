@@ -86,7 +86,7 @@ TEST(Validation, DefaultsAreValidAndShownAsWritten) {
   EXPECT_EQ(number_text(1.0 / 3), "0.3333333333333333");  // 16 digits read back exactly
   const auto r = run(envsift_binary() + " screen --help");
   EXPECT_NE(r.output.find("(=0.05)"), std::string::npos);
-  EXPECT_NE(r.output.find("(=0.975)"), std::string::npos);
+  EXPECT_NE(r.output.find("(=0.995)"), std::string::npos);
   EXPECT_NE(r.output.find("(=0.15)"), std::string::npos);
   EXPECT_EQ(r.output.find("0000000"), std::string::npos) << "a default printed as a long expansion";
 }

@@ -97,8 +97,9 @@ TEST_F(HtmlReportTest, EverySuspectAppearsInEachPictureOfItsTaxon) {
         EXPECT_NE(svg.find("data-record=\"" + id + "\""), std::string::npos) << s.taxon << " " << id;
         ++checked;
       }
-    // map, and with suspects the pair plot and a plot of each layer where one is beyond a cutoff
-    EXPECT_GE(s.pictures.size(), suspects[s.taxon].empty() ? 1u : 3u) << s.taxon;
+    // map, and with suspects the pair plot (and a plot of each layer where one is beyond a one-layer
+    // test's cutoff; suspects of the tests of all layers together may have none)
+    EXPECT_GE(s.pictures.size(), suspects[s.taxon].empty() ? 1u : 2u) << s.taxon;
   }
   EXPECT_GT(checked, 100u);
   // the worst demo record is in the top-suspects table, linked to its taxon

@@ -31,7 +31,7 @@ TEST(ReviewOutputs, ManifestChecksumsEqualSha256sum) {
   const auto m = nlohmann::json::parse(read_file(dir + "/run.json"));
   EXPECT_EQ(m["command_line"].get<std::string>().rfind("envsift screen --quiet --points", 0), 0u);
   EXPECT_EQ(m["seed"], 7);
-  EXPECT_EQ(m["options"]["z-cutoff"], "3");
+  EXPECT_EQ(m["options"]["z-cutoff"], "4");
   EXPECT_EQ(m["points"]["sha256"], sha256sum(source_path("demo-points/occurrences.csv")));
   ASSERT_EQ(m["layers"].size(), 4u);
   for (const auto& layer : m["layers"]) {

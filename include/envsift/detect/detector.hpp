@@ -12,6 +12,14 @@
 
 namespace envsift {
 
+// The environments available around a taxon (its landscape test's background): cells drawn from
+// its accessible area, cells × layers (the same layers as the taxon's values), NaN = missing;
+// `area` says in words where they were drawn (e.g. "within 35 km of its records").
+struct LandscapeValues {
+  Eigen::MatrixXd values;
+  std::string area;
+};
+
 // The values of one taxon. `reference` holds the rows the taxon's statistics are estimated from
 // (one row per distinct raster cell by default); `records` holds the rows to judge, one per
 // record. Both are rows × layers with NaN for a missing value.
@@ -26,6 +34,7 @@ struct TaxonValues {
   std::uint64_t seed = 0;  // for randomised tests; derived from the run's seed and the taxon name
   const Eigen::MatrixXd* lower = nullptr;
   const Eigen::MatrixXd* upper = nullptr;
+  const LandscapeValues* landscape = nullptr;  // given to tests that ask for it (uses_landscape)
 
   // The range record r may take on layer l: its disc (which holds its point value), else the point.
   std::pair<double, double> range(Eigen::Index r, Eigen::Index l) const {
@@ -54,6 +63,8 @@ class Detector {
   virtual std::string name() const = 0;  // the word written to `flags`, and the prefix of its columns
   virtual std::vector<std::string> extra_columns() const { return {}; }
   virtual std::vector<Finding> judge(const TaxonValues& taxon) const = 0;
+  // True for a test that compares the taxon with its landscape (TaxonValues::landscape).
+  virtual bool uses_landscape() const { return false; }
 };
 
 // Findings for a taxon no record of which can be judged.

@@ -11,8 +11,13 @@
 
 #include "envsift/detect/detector.hpp"
 #include "envsift/group/populations.hpp"
+#include "envsift/group/taxon_groups.hpp"
 
 namespace envsift {
+
+// Draws the landscape of each of a batch of taxa (one LandscapeValues per taxon, in order).
+// Called from one thread at a time, between batches.
+using LandscapeSource = std::function<std::vector<LandscapeValues>(const std::vector<const TaxonGroup*>&)>;
 
 struct JudgingInput {
   const Eigen::MatrixXd& values;            // records × layers, NaN = missing
@@ -23,6 +28,11 @@ struct JudgingInput {
   const std::vector<std::string>& layer_names;
   const Eigen::MatrixXd* lower = nullptr;  // uncertainty discs (see TaxonValues)
   const Eigen::MatrixXd* upper = nullptr;
+  // When a detector uses_landscape(): taxa are judged in batches of `landscape_batch`, each
+  // batch's landscapes drawn first, so only one batch's landscape is held at a time. Results do
+  // not depend on the batch size.
+  LandscapeSource landscape;
+  std::size_t landscape_batch = 256;
 };
 
 struct JudgedTaxon {

@@ -29,6 +29,7 @@ struct CutoffStyle {
 struct TestEntry {
   std::string name;          // written to `flags`; the prefix of its columns
   bool is_default = false;   // run unless --tests says otherwise (taxon tests)
+  bool needs_layers = false; // judges nothing without rasters: left out of the defaults with --value-columns
   std::string help;          // one line for the --tests help
   std::vector<OptionSpec> options;  // its own options (the shared ones are in test_options())
   // One line for the report and the run's description: what it flags, with the cutoff in use.

@@ -10,7 +10,7 @@
 #include <string>
 #include <vector>
 
-#include "envsift/evaluate/seeded_random.hpp"
+#include "envsift/seeded_random.hpp"
 #include "envsift/evaluate/virtual_taxa.hpp"
 
 namespace envsift {

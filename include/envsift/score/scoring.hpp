@@ -38,7 +38,13 @@ struct Verdict {
 };
 
 // `findings[t]` is test t's finding for this record; `names[t]` its name.
-Verdict combine(const std::vector<const Finding*>& findings, const std::vector<std::string>& names);
+// How the severities of the tests that judged a record make its score: `max` (the worst test:
+// a score above 1 means some test flagged it) or `mean` (agreement counts: a record several tests
+// find far from its taxon ranks above one only a single test finds far). Flags are the same
+// either way; only the ranking differs.
+enum class CombineRule { max, mean };
+Verdict combine(const std::vector<const Finding*>& findings, const std::vector<std::string>& names,
+                CombineRule rule = CombineRule::max);
 
 // Rank 1 = highest score. Records without a score get rank 0 (written as empty).
 std::vector<std::size_t> rank_by_score(const std::vector<std::optional<double>>& scores);

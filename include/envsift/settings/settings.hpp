@@ -44,10 +44,18 @@ struct TestSettings {
   bool all_records = false;           // estimate from every record, not one per distinct cell
   unsigned long long seed = 1;        // randomised tests
   std::string populations = "split";  // split | one
+  std::string combine = "mean";       // how severities make the score: max | mean (README, evaluation)
   double max_flagged_share = 0.15;    // population guard
-  double z_cutoff = 3.0;              // robust_z
-  double chi2_quantile = 0.975;       // mahalanobis, mahalanobis_robust
+  double z_cutoff = 4.0;              // robust_z (README, evaluation)
+  double chi2_quantile = 0.995;       // mahalanobis, mahalanobis_robust (README, evaluation)
   std::string mcd_start = "deterministic";  // mahalanobis_robust: deterministic | random
+  // landscape: flag when the record's environment is this many times more common in the taxon's
+  // landscape than among its records; where the landscape is drawn (landscape_sample.hpp)
+  double landscape_ratio = 5;
+  std::string landscape_area = "buffer";  // buffer | extent
+  double landscape_spread = 2;            // buffer radius = this × the taxon's spread …
+  double landscape_min_km = 20;           // … at least this
+  std::size_t landscape_cells = 1000;     // cells drawn per taxon
 };
 
 // The reported elevation against a DEM layer.

@@ -1,5 +1,5 @@
-// Random numbers for the evaluation that are the same on every machine and standard library
-// (std::uniform_real_distribution and friends are not): SplitMix64 (Steele, Lea & Flood 2014,
+// Random numbers (the evaluation, the landscape sample) that are the same on every machine and
+// standard library (std::uniform_real_distribution and friends are not): SplitMix64 (Steele, Lea & Flood 2014,
 // "Fast splittable pseudorandom number generators", OOPSLA), uniform doubles from its top 53
 // bits, normals by Box-Muller.
 #pragma once

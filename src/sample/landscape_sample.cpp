@@ -1,0 +1,136 @@
+#include "envsift/sample/landscape_sample.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <cstdio>
+
+#include <ogr_spatialref.h>
+
+#include "envsift/errors.hpp"
+#include "envsift/sample/great_circle.hpp"
+#include "envsift/seeded_random.hpp"
+#include "envsift/stable_hash.hpp"
+
+namespace envsift {
+namespace {
+
+double median_of(std::vector<double> v) {
+  const std::size_t m = v.size() / 2;
+  std::nth_element(v.begin(), v.begin() + static_cast<std::ptrdiff_t>(m), v.end());
+  const double upper = v[m];
+  if (v.size() % 2) return upper;
+  return (*std::max_element(v.begin(), v.begin() + static_cast<std::ptrdiff_t>(m)) + upper) / 2;
+}
+
+double wrap_longitude(double lon) { return lon - 360 * std::floor((lon + 180) / 360); }
+
+// A first-layer cell's size in metres (north-south): degrees on a geographic grid, else the
+// CRS's linear unit.
+double cell_size_m(const LayerInfo& layer) {
+  const double size = std::fabs(layer.geotransform[5]);
+  return layer.geographic ? size * M_PI / 180 * kEarthRadiusM : size;
+}
+
+std::string kilometres(double m) {
+  char buf[64];
+  std::snprintf(buf, sizeof buf, m < 10000 ? "%.1f km" : "%.0f km", m / 1000);
+  return buf;
+}
+
+}  // namespace
+
+LandscapeSampler::LandscapeSampler(RasterStack& stack, std::vector<LayerInfo> table_layers, std::vector<std::size_t> judged,
+                                   Interpolation method, LandscapeOptions options)
+    : stack_(stack), layers_(std::move(table_layers)), judged_(std::move(judged)), method_(method), options_(std::move(options)) {
+  min_radius_m_ = std::max(options_.min_radius_km * 1000, 10 * cell_size_m(stack_.layers().at(0)));
+}
+
+double LandscapeSampler::buffer_radius_m(const TaxonPlaces& t) const {
+  if (t.longitude.empty()) return min_radius_m_;
+  const double lon0 = median_of(t.longitude), lat0 = median_of(t.latitude);
+  std::vector<double> distance;
+  for (std::size_t i = 0; i < t.longitude.size(); ++i) distance.push_back(great_circle_m(lon0, lat0, t.longitude[i], t.latitude[i]));
+  return std::max(min_radius_m_, options_.spread_factor * median_of(distance));
+}
+
+// The record table's columns for the judged layers: a stack layer's value, or a derived
+// circular component computed from it as the records' are (circular_layers.cpp).
+Eigen::MatrixXd LandscapeSampler::judged_values(const Samples& s) const {
+  Eigen::MatrixXd out(s.values.rows(), static_cast<Eigen::Index>(judged_.size()));
+  for (std::size_t c = 0; c < judged_.size(); ++c) {
+    const LayerInfo& layer = layers_[judged_[c]];
+    if (layer.derived_from.empty()) {
+      out.col(static_cast<Eigen::Index>(c)) = s.values.col(static_cast<Eigen::Index>(judged_[c]));
+      continue;
+    }
+    Eigen::Index source = 0;
+    while (layers_[static_cast<std::size_t>(source)].spec.name != layer.derived_from) ++source;
+    const bool sine = layer.spec.name.size() >= 4 && layer.spec.name.compare(layer.spec.name.size() - 4, 4, "_sin") == 0;
+    const Eigen::ArrayXd radians = s.values.col(source).array() * M_PI / 180;
+    if (sine) out.col(static_cast<Eigen::Index>(c)) = radians.sin().matrix();
+    else out.col(static_cast<Eigen::Index>(c)) = radians.cos().matrix();
+  }
+  return out;
+}
+
+void LandscapeSampler::draw_extent() {
+  const LayerInfo& first = stack_.layers().at(0);
+  OGRSpatialReference source, wgs84;
+  source.importFromWkt(first.crs_wkt.c_str());
+  source.SetAxisMappingStrategy(OAMS_TRADITIONAL_GIS_ORDER);
+  wgs84.importFromEPSG(4326);
+  wgs84.SetAxisMappingStrategy(OAMS_TRADITIONAL_GIS_ORDER);
+  std::unique_ptr<OGRCoordinateTransformation> to_wgs84(OGRCreateCoordinateTransformation(&source, &wgs84));
+  if (!to_wgs84) throw InputError(first.spec.path, "cannot transform its CRS to WGS 84", "use --landscape-area buffer");
+  SeededRandom random(stable_hash("landscape extent", options_.seed ^ kFnvBasis));
+  std::vector<double> lon, lat;
+  const auto& g = first.geotransform;
+  for (std::size_t tries = 0; lon.size() < options_.cells && tries < 100 * options_.cells; ++tries) {
+    const double col = random.uniform() * first.width, row = random.uniform() * first.height;
+    double x = g[0] + col * g[1] + row * g[2], y = g[3] + col * g[4] + row * g[5];
+    const double accept = random.uniform();
+    int ok = 0;
+    to_wgs84->Transform(1, &x, &y, nullptr, &ok);
+    if (!ok) continue;
+    if (first.geographic && accept > std::cos(y * M_PI / 180)) continue;  // equal area on the sphere
+    lon.push_back(x), lat.push_back(y);
+  }
+  auto shared = std::make_shared<LandscapeValues>();
+  shared->values = judged_values(stack_.sample(lon, lat, method_));
+  shared->area = "in the layers' extent";
+  extent_ = std::move(shared);
+}
+
+std::vector<LandscapeValues> LandscapeSampler::sample(const std::vector<TaxonPlaces>& taxa) {
+  if (options_.area == "extent") {
+    if (!extent_) draw_extent();
+    return std::vector<LandscapeValues>(taxa.size(), *extent_);
+  }
+  std::vector<double> lon, lat;
+  std::vector<std::string> area(taxa.size());
+  for (std::size_t t = 0; t < taxa.size(); ++t) {
+    const TaxonPlaces& places = taxa[t];
+    const double radius = buffer_radius_m(places);
+    area[t] = "within " + kilometres(radius) + " of its records";
+    SeededRandom random(stable_hash(places.taxon, options_.seed ^ 0x1a2d5ca9e5ull));
+    for (std::size_t k = 0; k < options_.cells; ++k) {
+      if (places.longitude.empty()) {
+        lon.push_back(std::nan("")), lat.push_back(std::nan(""));
+        continue;
+      }
+      const std::size_t at = random.below(places.longitude.size());
+      const double azimuth = 360 * random.uniform(), distance = radius * std::sqrt(random.uniform());
+      const auto [x, y] = destination(places.longitude[at], places.latitude[at], azimuth, distance);
+      lon.push_back(wrap_longitude(x)), lat.push_back(y);
+    }
+  }
+  const Eigen::MatrixXd all = judged_values(stack_.sample(lon, lat, method_));
+  std::vector<LandscapeValues> out(taxa.size());
+  for (std::size_t t = 0; t < taxa.size(); ++t) {
+    out[t].values = all.middleRows(static_cast<Eigen::Index>(t * options_.cells), static_cast<Eigen::Index>(options_.cells));
+    out[t].area = std::move(area[t]);
+  }
+  return out;
+}
+
+}  // namespace envsift
