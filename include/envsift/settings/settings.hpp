@@ -53,9 +53,9 @@ struct TestSettings {
   // landscape than among its records; where the landscape is drawn (landscape_sample.hpp)
   double landscape_ratio = 5;
   std::string landscape_area = "buffer";  // buffer | extent
-  double landscape_spread = 2;            // buffer radius = this × the taxon's spread …
+  double landscape_spread = 1;            // buffer radius = this × the taxon's spread …
   double landscape_min_km = 20;           // … at least this
-  std::size_t landscape_cells = 1000;     // cells drawn per taxon
+  std::size_t landscape_cells = 300;      // cells drawn per taxon
 };
 
 // The reported elevation against a DEM layer.
