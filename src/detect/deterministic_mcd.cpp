@@ -37,17 +37,9 @@ std::vector<double> column(const Eigen::MatrixXd& x, Eigen::Index j) {
   return {x.col(j).data(), x.col(j).data() + x.rows()};
 }
 
-double median(std::vector<double> v) {
-  const std::size_t m = v.size() / 2;
-  std::nth_element(v.begin(), v.begin() + static_cast<std::ptrdiff_t>(m), v.end());
-  const double upper = v[m];
-  if (v.size() % 2) return upper;
-  return (*std::max_element(v.begin(), v.begin() + static_cast<std::ptrdiff_t>(m)) + upper) / 2;
-}
-
 // The scale of a column after centring on its median (R's doScale(center = median)).
 double centred_scale(std::vector<double> v) {
-  const double m = median(v);
+  const double m = median_of(v);
   for (double& e : v) e -= m;
   return mcd_scale(v);
 }
@@ -128,7 +120,7 @@ Rows initial_subset(const Eigen::MatrixXd& z, const Eigen::MatrixXd& P, std::siz
   const Eigen::MatrixXd sqrt_inv = P * lambda.cwiseInverse().asDiagonal() * P.transpose();
   const Eigen::MatrixXd sphered = z * sqrt_inv;
   Eigen::RowVectorXd medians(P.cols());
-  for (Eigen::Index j = 0; j < P.cols(); ++j) medians[j] = median(column(sphered, j));
+  for (Eigen::Index j = 0; j < P.cols(); ++j) medians[j] = median_of(column(sphered, j));
   const Eigen::RowVectorXd location = medians * sqrt_cov;
   const Eigen::MatrixXd centred = (z.rowwise() - location) * P;
   const Eigen::VectorXd d = (centred.array().rowwise() / lambda.transpose().array()).square().rowwise().sum();
@@ -143,7 +135,7 @@ McdResult deterministic_mcd(const Eigen::MatrixXd& x, const McdOptions& o) {
   if (p == 1) return finish(x, univariate_mcd(x, h), h, o.reweight_quantile);  // the exact MCD
   Eigen::RowVectorXd centre(p), scale(p);
   for (Eigen::Index j = 0; j < p; ++j) {
-    centre[j] = median(column(x, j));
+    centre[j] = median_of(column(x, j));
     scale[j] = centred_scale(column(x, j));
   }
   const Eigen::MatrixXd z = (x.rowwise() - centre).array().rowwise() / scale.array();

@@ -15,13 +15,6 @@
 namespace envsift {
 namespace {
 
-double median_of(std::vector<double> v) {
-  const std::size_t n = v.size(), m = n / 2;
-  std::nth_element(v.begin(), v.begin() + static_cast<std::ptrdiff_t>(m), v.end());
-  const double upper = v[m];
-  if (n % 2) return upper;
-  return (*std::max_element(v.begin(), v.begin() + static_cast<std::ptrdiff_t>(m)) + upper) / 2;
-}
 
 // The k-th smallest (1-based) of y[j] − y[i], i < j, for sorted y: the candidates of each row i
 // are narrowed to [left_i, right_i] around a weighted median of the rows' middle candidates,
@@ -84,6 +77,14 @@ double kth_pairwise_difference(const std::vector<double>& y, std::size_t k) {
 }
 
 }  // namespace
+
+double median_of(std::vector<double> v) {
+  const std::size_t n = v.size(), m = n / 2;
+  std::nth_element(v.begin(), v.begin() + static_cast<std::ptrdiff_t>(m), v.end());
+  const double upper = v[m];
+  if (n % 2) return upper;
+  return (*std::max_element(v.begin(), v.begin() + static_cast<std::ptrdiff_t>(m)) + upper) / 2;
+}
 
 double qn_scale(std::vector<double> x) {
   const std::size_t n = x.size();

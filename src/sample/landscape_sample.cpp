@@ -6,6 +6,7 @@
 
 #include <ogr_spatialref.h>
 
+#include "envsift/detect/robust_scale.hpp"
 #include "envsift/errors.hpp"
 #include "envsift/sample/great_circle.hpp"
 #include "envsift/seeded_random.hpp"
@@ -13,14 +14,6 @@
 
 namespace envsift {
 namespace {
-
-double median_of(std::vector<double> v) {
-  const std::size_t m = v.size() / 2;
-  std::nth_element(v.begin(), v.begin() + static_cast<std::ptrdiff_t>(m), v.end());
-  const double upper = v[m];
-  if (v.size() % 2) return upper;
-  return (*std::max_element(v.begin(), v.begin() + static_cast<std::ptrdiff_t>(m)) + upper) / 2;
-}
 
 double wrap_longitude(double lon) { return lon - 360 * std::floor((lon + 180) / 360); }
 
