@@ -1,5 +1,5 @@
 // The median, once for every step that needs it (robust z, the adjusted boxplot, the population
-// split): the middle value, or the mean of the two middle values.
+// split, the MCD scales, the landscape buffer): the middle value, or the mean of the two middle values.
 #pragma once
 #include <algorithm>
 #include <cstddef>
@@ -16,6 +16,9 @@ inline double median_in_place(std::vector<double>& v) {
   const double lower = *std::max_element(v.begin(), v.begin() + static_cast<std::ptrdiff_t>(mid));
   return (lower + upper) / 2;
 }
+
+// Of a copy of the values.
+inline double median_of(std::vector<double> v) { return median_in_place(v); }
 
 // Of values sorted either way.
 inline double median_of_sorted(const std::vector<double>& x) {

@@ -26,6 +26,7 @@
 #include <boost/math/distributions/normal.hpp>
 
 #include "envsift/detect/robust_scale.hpp"
+#include "envsift/median.hpp"
 #include "mcd_steps.hpp"
 
 namespace envsift {

@@ -12,6 +12,8 @@
 
 #include <boost/math/distributions/normal.hpp>
 
+#include "envsift/median.hpp"
+
 namespace envsift {
 namespace {
 
@@ -77,14 +79,6 @@ double kth_pairwise_difference(const std::vector<double>& y, std::size_t k) {
 }
 
 }  // namespace
-
-double median_of(std::vector<double> v) {
-  const std::size_t n = v.size(), m = n / 2;
-  std::nth_element(v.begin(), v.begin() + static_cast<std::ptrdiff_t>(m), v.end());
-  const double upper = v[m];
-  if (n % 2) return upper;
-  return (*std::max_element(v.begin(), v.begin() + static_cast<std::ptrdiff_t>(m)) + upper) / 2;
-}
 
 double qn_scale(std::vector<double> x) {
   const std::size_t n = x.size();

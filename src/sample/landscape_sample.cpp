@@ -6,8 +6,8 @@
 
 #include <ogr_spatialref.h>
 
-#include "envsift/detect/robust_scale.hpp"
 #include "envsift/errors.hpp"
+#include "envsift/median.hpp"
 #include "envsift/sample/great_circle.hpp"
 #include "envsift/seeded_random.hpp"
 #include "envsift/stable_hash.hpp"

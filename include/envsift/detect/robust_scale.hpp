@@ -4,9 +4,6 @@
 
 namespace envsift {
 
-// The median (the mean of the two middle values for an even count); `v` is reordered.
-double median_of(std::vector<double> v);
-
 // Qn of Rousseeuw & Croux (1993): 2.21914 · the k-th smallest |x_i − x_j| (i < j),
 // k = C(⌊n/2⌋ + 1, 2), with the finite-sample factors of R's robustbase::Qn.
 double qn_scale(std::vector<double> x);
