@@ -22,14 +22,20 @@ std::vector<JudgedTaxon> judge_taxa(const JudgingInput& in, const std::vector<st
   std::vector<JudgedTaxon> result(groups.size());
   std::vector<std::size_t> order(groups.size());
   std::iota(order.begin(), order.end(), 0);
-  std::stable_sort(order.begin(), order.end(),
-                   [&](std::size_t a, std::size_t b) { return groups[a].records.size() > groups[b].records.size(); });
   std::vector<std::exception_ptr> errors(groups.size());
   const bool wants_landscape =
       in.landscape && std::any_of(detectors.begin(), detectors.end(), [](const auto& d) { return d->uses_landscape(); });
   const std::size_t batch = wants_landscape ? std::max<std::size_t>(in.landscape_batch, 1) : std::max<std::size_t>(order.size(), 1);
+  if (wants_landscape && in.landscape_key && batch < order.size()) {
+    std::vector<std::uint64_t> key(groups.size());
+    for (std::size_t k = 0; k < groups.size(); ++k) key[k] = in.landscape_key(groups[k]);
+    std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) { return key[a] < key[b]; });
+  }
   for (std::size_t first = 0; first < order.size(); first += batch) {
    const std::size_t last = std::min(order.size(), first + batch);
+   // largest taxa first within the batch, so that no thread is left with a big one at the end
+   std::stable_sort(order.begin() + static_cast<std::ptrdiff_t>(first), order.begin() + static_cast<std::ptrdiff_t>(last),
+                    [&](std::size_t a, std::size_t b) { return groups[a].records.size() > groups[b].records.size(); });
    std::vector<LandscapeValues> landscapes;
    if (wants_landscape) {
     std::vector<const TaxonGroup*> taxa;

@@ -84,6 +84,7 @@ Judgement judge_records(RecordTable& t, const ActiveTests& tests, const Membersh
   const Eigen::MatrixXd* judged_upper = !t.has_discs ? nullptr : every_layer ? &t.discs.max : &upper;
   JudgingInput input{judged_values, t.cells, m.taxon_of, m.taxon_names, m.eligible, layer_names, judged_lower, judged_upper};
   std::unique_ptr<LandscapeSampler> sampler;
+  double landscape_seconds = 0;
   if (t.stack) {  // layers, not value columns: the landscape test can be given its landscape
     LandscapeOptions o;
     o.area = s.tests.landscape_area;
@@ -92,20 +93,29 @@ Judgement judge_records(RecordTable& t, const ActiveTests& tests, const Membersh
     o.cells = s.tests.landscape_cells;
     o.seed = s.tests.seed;
     std::vector<std::size_t> judged_columns(judged.begin(), judged.end());
-    sampler = std::make_unique<LandscapeSampler>(*t.stack, t.layers, judged_columns, sampling_plan(s.sampling).method, o);
-    input.landscape = [&](const std::vector<const TaxonGroup*>& taxa) {
-      std::vector<TaxonPlaces> places(taxa.size());
-      for (std::size_t k = 0; k < taxa.size(); ++k) {
-        places[k].taxon = taxa[k]->taxon;
-        std::unordered_set<std::uint64_t> seen;
-        for (std::size_t i : taxa[k]->records) {
-          const auto& r = t.points.records[i];
-          if (!std::isfinite(r.longitude) || !std::isfinite(r.latitude) || !seen.insert(t.cells[i]).second) continue;
-          places[k].longitude.push_back(r.longitude), places[k].latitude.push_back(r.latitude);
-        }
+    const SamplingPlan plan = sampling_plan(s.sampling);
+    sampler = std::make_unique<LandscapeSampler>(*t.stack, t.layers, judged_columns, plan.method, o);
+    auto places_of = [&t](const TaxonGroup& taxon) {
+      TaxonPlaces places;
+      places.taxon = taxon.taxon;
+      std::unordered_set<std::uint64_t> seen;
+      for (std::size_t i : taxon.records) {
+        const auto& r = t.points.records[i];
+        if (!std::isfinite(r.longitude) || !std::isfinite(r.latitude) || !seen.insert(t.cells[i]).second) continue;
+        places.longitude.push_back(r.longitude), places.latitude.push_back(r.latitude);
       }
-      return sampler->sample(places);
+      return places;
     };
+    input.landscape = [&, places_of](const std::vector<const TaxonGroup*>& taxa) {
+      const Stopwatch clock;
+      std::vector<TaxonPlaces> places;
+      for (const TaxonGroup* taxon : taxa) places.push_back(places_of(*taxon));
+      auto drawn = sampler->sample(places);
+      landscape_seconds += clock.seconds();
+      return drawn;
+    };
+    input.landscape_batch = std::max<std::size_t>(1, plan.landscape_bytes / sampler->bytes_per_taxon());
+    input.landscape_key = [places_of](const TaxonGroup& taxon) { return locality_key(places_of(taxon)); };
   }
   judge_taxa(
       input,
@@ -131,6 +141,7 @@ Judgement judge_records(RecordTable& t, const ActiveTests& tests, const Membersh
       &test_seconds, populations);
   for (std::size_t d = 0; d < tests.detectors.size(); ++d)
     j.test_seconds.emplace_back("test " + names[d] + " (CPU)", test_seconds[d]);
+  if (sampler) j.test_seconds.emplace_back("landscape draws", landscape_seconds);
   // Records outside every taxon: only the record checks can judge them.
   const std::vector<Finding> none(tests.detectors.size());
   std::vector<const Finding*> no_findings;

@@ -48,18 +48,20 @@ double LandscapeSampler::buffer_radius_m(const TaxonPlaces& t) const {
 
 // The record table's columns for the judged layers: a stack layer's value, or a derived
 // circular component computed from it as the records' are (circular_layers.cpp).
-Eigen::MatrixXd LandscapeSampler::judged_values(const Samples& s) const {
-  Eigen::MatrixXd out(s.values.rows(), static_cast<Eigen::Index>(judged_.size()));
+// Rows [first, first + rows) of the samples.
+Eigen::MatrixXd LandscapeSampler::judged_values(const Samples& all, Eigen::Index first, Eigen::Index rows) const {
+  const auto s = all.values.middleRows(first, rows);
+  Eigen::MatrixXd out(rows, static_cast<Eigen::Index>(judged_.size()));
   for (std::size_t c = 0; c < judged_.size(); ++c) {
     const LayerInfo& layer = layers_[judged_[c]];
     if (layer.derived_from.empty()) {
-      out.col(static_cast<Eigen::Index>(c)) = s.values.col(static_cast<Eigen::Index>(judged_[c]));
+      out.col(static_cast<Eigen::Index>(c)) = s.col(static_cast<Eigen::Index>(judged_[c]));
       continue;
     }
     Eigen::Index source = 0;
     while (layers_[static_cast<std::size_t>(source)].spec.name != layer.derived_from) ++source;
     const bool sine = layer.spec.name.size() >= 4 && layer.spec.name.compare(layer.spec.name.size() - 4, 4, "_sin") == 0;
-    const Eigen::ArrayXd radians = s.values.col(source).array() * M_PI / 180;
+    const Eigen::ArrayXd radians = s.col(source).array() * M_PI / 180;
     if (sine) out.col(static_cast<Eigen::Index>(c)) = radians.sin().matrix();
     else out.col(static_cast<Eigen::Index>(c)) = radians.cos().matrix();
   }
@@ -89,7 +91,8 @@ void LandscapeSampler::draw_extent() {
     lon.push_back(x), lat.push_back(y);
   }
   auto shared = std::make_shared<LandscapeValues>();
-  shared->values = judged_values(stack_.sample(lon, lat, method_));
+  const Samples all = stack_.sample(lon, lat, method_);
+  shared->values = judged_values(all, 0, all.values.rows());
   shared->area = "in the layers' extent";
   extent_ = std::move(shared);
 }
@@ -117,13 +120,31 @@ std::vector<LandscapeValues> LandscapeSampler::sample(const std::vector<TaxonPla
       lon.push_back(wrap_longitude(x)), lat.push_back(y);
     }
   }
-  const Eigen::MatrixXd all = judged_values(stack_.sample(lon, lat, method_));
+  const Samples all = stack_.sample(lon, lat, method_);
   std::vector<LandscapeValues> out(taxa.size());
   for (std::size_t t = 0; t < taxa.size(); ++t) {
-    out[t].values = all.middleRows(static_cast<Eigen::Index>(t * options_.cells), static_cast<Eigen::Index>(options_.cells));
+    out[t].values = judged_values(all, static_cast<Eigen::Index>(t * options_.cells), static_cast<Eigen::Index>(options_.cells));
     out[t].area = std::move(area[t]);
   }
   return out;
+}
+
+std::size_t LandscapeSampler::bytes_per_taxon() const {
+  // while a batch is drawn: the points, the samples (value and status per layer), the taxa's copies
+  return options_.cells * (3 * sizeof(double) + stack_.layers().size() * (sizeof(double) + sizeof(CellStatus)) +
+                           judged_.size() * sizeof(double));
+}
+
+std::uint64_t locality_key(const TaxonPlaces& t) {
+  if (t.longitude.empty()) return ~std::uint64_t{0};
+  // the median place on a 2^16 × 2^16 grid of the globe, interleaved (a Z-order curve)
+  auto step = [](double v, double lo, double span) {
+    return static_cast<std::uint64_t>(std::clamp((v - lo) / span, 0.0, 1.0) * 65535);
+  };
+  const std::uint64_t x = step(median_of(t.longitude), -180, 360), y = step(median_of(t.latitude), -90, 180);
+  std::uint64_t key = 0;
+  for (int b = 0; b < 16; ++b) key |= ((x >> b) & 1) << (2 * b) | ((y >> b) & 1) << (2 * b + 1);
+  return key;
 }
 
 }  // namespace envsift

@@ -202,6 +202,7 @@ SamplingPlan sampling_plan(const SamplingSettings& s) {
   plan.cache_bytes = std::max<std::size_t>(1, std::min(s.block_cache_mb, s.memory_limit_mb / 4)) << 20;
   // sampling works on ~100 bytes per record and layer pass; a quarter of the limit for that
   plan.chunk_records = std::max<std::size_t>(1024, (s.memory_limit_mb << 20) / 4 / 100);
+  plan.landscape_bytes = (s.memory_limit_mb << 20) / 8;
   return plan;
 }
 

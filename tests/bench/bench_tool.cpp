@@ -28,6 +28,11 @@
 
 namespace {
 
+[[noreturn]] void fail(const std::string& message) {
+  std::fprintf(stderr, "envsift_bench: %s\n", message.c_str());
+  std::exit(2);
+}
+
 // Smooth fields plus hashed noise, so that compression and decoding cost what real climate
 // layers cost (a constant raster would compress to nothing).
 struct Extent {
@@ -53,6 +58,7 @@ void make_layers(const std::string& dir, int count, int width, int height, const
     const std::string path = dir + "/layer" + std::to_string(k + 1) + ".tif";
     GDALDataset* ds = GetGDALDriverManager()->GetDriverByName("GTiff")->Create(path.c_str(), width, height, 1,
                                                                                 GDT_Float32, options);
+    if (!ds) fail("cannot create " + path + ": give a directory that exists and is writable");
     const double dx = (e.east - e.west) / width, dy = (e.north - e.south) / height;
     double gt[6] = {e.west, dx, 0, e.north, 0, -dy};
     ds->SetGeoTransform(gt);
@@ -219,6 +225,7 @@ void make_terrain(const std::string& dir) {
   for (const auto& [name, values] : layers) {
     const std::string path = dir + "/" + name + ".tif";
     GDALDataset* ds = GetGDALDriverManager()->GetDriverByName("GTiff")->Create(path.c_str(), n, n, 1, GDT_Float32, nullptr);
+    if (!ds) fail("cannot create " + path + ": give a directory that exists and is writable");
     double gt[6] = {west, cell, 0, north, 0, -cell};
     ds->SetGeoTransform(gt);
     ds->SetSpatialRef(&srs);

@@ -29,10 +29,13 @@ struct JudgingInput {
   const Eigen::MatrixXd* lower = nullptr;  // uncertainty discs (see TaxonValues)
   const Eigen::MatrixXd* upper = nullptr;
   // When a detector uses_landscape(): taxa are judged in batches of `landscape_batch`, each
-  // batch's landscapes drawn first, so only one batch's landscape is held at a time. Results do
-  // not depend on the batch size.
-  LandscapeSource landscape;
+  // batch's landscapes drawn first, so only one batch's landscape is held at a time. With a
+  // `landscape_key` (e.g. where the taxon lives on a space-filling curve), batches are runs of
+  // taxa in key order, so that each batch's draws touch fewer raster blocks. Results depend on
+  // neither the batch size nor the key.
+  LandscapeSource landscape = {};
   std::size_t landscape_batch = 256;
+  std::function<std::uint64_t(const TaxonGroup&)> landscape_key = {};
 };
 
 struct JudgedTaxon {

@@ -37,6 +37,10 @@ struct TaxonPlaces {
   std::vector<double> longitude, latitude;
 };
 
+// Where a taxon lives, as a position on a space-filling curve of the globe: taxa with near keys
+// draw their landscapes from nearby raster blocks, so batches in key order read fewer blocks.
+std::uint64_t locality_key(const TaxonPlaces& taxon);
+
 class LandscapeSampler {
  public:
   // `table_layers`: the record table's layers (the stack's, then derived circular components);
@@ -47,9 +51,11 @@ class LandscapeSampler {
   std::vector<LandscapeValues> sample(const std::vector<TaxonPlaces>& taxa);
   // The radius of a taxon's buffer, metres.
   double buffer_radius_m(const TaxonPlaces& taxon) const;
+  // Memory a taxon's landscape takes while its batch is drawn: size batches by this.
+  std::size_t bytes_per_taxon() const;
 
  private:
-  Eigen::MatrixXd judged_values(const Samples& samples) const;
+  Eigen::MatrixXd judged_values(const Samples& samples, Eigen::Index first, Eigen::Index rows) const;
   void draw_extent();
   RasterStack& stack_;
   std::vector<LayerInfo> layers_;

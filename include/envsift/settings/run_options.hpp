@@ -18,11 +18,13 @@ const std::vector<OptionSpec>& screen_options();    // --value-columns, --single
 void validate_for_sample(const ScreenSettings& settings);
 
 // What the settings mean for sampling, derived once: the interpolation, the block cache in
-// bytes (at most a quarter of the memory limit) and the records sampled at a time.
+// bytes (at most a quarter of the memory limit), the records sampled at a time, and the memory
+// for the landscapes drawn at a time (an eighth of the limit).
 struct SamplingPlan {
   Interpolation method = Interpolation::nearest;
   std::size_t cache_bytes = 0;
   std::size_t chunk_records = 0;
+  std::size_t landscape_bytes = 0;
 };
 SamplingPlan sampling_plan(const SamplingSettings& settings);
 
