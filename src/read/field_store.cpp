@@ -1,5 +1,6 @@
 #include "envsift/read/field_store.hpp"
 
+#include <algorithm>
 #include <cerrno>
 #include <cstdlib>
 #include <cstring>
@@ -37,7 +38,7 @@ std::string temp_dir() {
 
 }  // namespace
 
-FieldStore::FieldStore() {
+FieldStore::FieldStore(std::size_t memory_bytes) : memory_bytes_(std::max(kChunk, memory_bytes)) {
   std::string path = temp_dir() + "/envsift-fields-XXXXXX";
   fd_ = ::mkstemp(path.data());
   if (fd_ < 0) throw OutputError(path, std::string("cannot create a temporary file (") + std::strerror(errno) + "); set TMPDIR to a writable directory");
@@ -54,6 +55,7 @@ FieldStore& FieldStore::operator=(FieldStore&& o) noexcept {
   if (this != &o) {
     if (fd_ >= 0) ::close(fd_);
     fd_ = o.fd_;
+    memory_bytes_ = o.memory_bytes_;
     o.fd_ = -1;
     offsets_ = std::move(o.offsets_);
     end_ = o.end_;
@@ -66,13 +68,14 @@ FieldStore& FieldStore::operator=(FieldStore&& o) noexcept {
 }
 
 void FieldStore::append(const std::vector<std::string>& fields) {
+  if (pending_.capacity() < memory_bytes_) pending_.reserve(memory_bytes_ + kChunk);  // no doubling past the budget
   offsets_.push_back(end_ + pending_.size());
   put_length(pending_, fields.size());
   for (const auto& f : fields) {
     put_length(pending_, f.size());
     pending_ += f;
   }
-  if (pending_.size() >= kChunk) {
+  if (pending_.size() >= memory_bytes_) {
     if (::pwrite(fd_, pending_.data(), pending_.size(), static_cast<off_t>(end_)) != static_cast<ssize_t>(pending_.size()))
       throw OutputError("$TMPDIR", std::string("cannot write the temporary copy of the records (") + std::strerror(errno) + ")");
     end_ += pending_.size();
@@ -80,42 +83,59 @@ void FieldStore::append(const std::vector<std::string>& fields) {
   }
 }
 
+void FieldStore::read_file(std::uint64_t at, char* into, std::size_t length) const {
+  std::size_t got = 0;
+  while (got < length && at + got < end_) {
+    const ssize_t n = ::pread(fd_, into + got, length - got, static_cast<off_t>(at + got));
+    if (n <= 0) throw std::runtime_error(std::string("cannot read the temporary copy of the records: ") + std::strerror(errno));
+    got += static_cast<std::size_t>(n);
+  }
+  if (got < length) throw std::runtime_error("the temporary copy of the records is shorter than written");
+}
+
 // Makes buffer_ hold [at, at + length): a large chunk when reading in order, only what is asked
 // for when jumping around (e.g. writing rows in rank order).
 void FieldStore::fill(std::uint64_t at, std::size_t length, bool in_order) const {
   if (at >= buffer_at_ && at + length <= buffer_at_ + buffer_.size()) return;
-  buffer_.resize(in_order ? std::max(kChunk, length) : length);
-  std::size_t got = 0;
-  while (got < buffer_.size() && at + got < end_) {
-    const ssize_t n = ::pread(fd_, buffer_.data() + got, buffer_.size() - got, static_cast<off_t>(at + got));
-    if (n <= 0) throw std::runtime_error(std::string("cannot read the temporary copy of the records: ") + std::strerror(errno));
-    got += static_cast<std::size_t>(n);
-  }
-  buffer_.resize(got);
+  buffer_.resize(static_cast<std::size_t>(std::min<std::uint64_t>(in_order ? std::max(kChunk, length) : length, end_ - at)));
+  read_file(at, buffer_.data(), buffer_.size());
   buffer_at_ = at;
 }
 
-void FieldStore::read(std::size_t i, std::vector<std::string>& fields) const {
+std::pair<std::uint64_t, std::size_t> FieldStore::extent(std::size_t i) const {
   const std::uint64_t start = offsets_.at(i);
   const std::uint64_t stop = i + 1 < offsets_.size() ? offsets_[i + 1] : end_ + pending_.size();
-  const std::size_t length = static_cast<std::size_t>(stop - start);
-  const std::string* source;
-  std::size_t at;
-  if (start >= end_) {  // still in memory
-    source = &pending_;
-    at = static_cast<std::size_t>(start - end_);
-  } else {
-    fill(start, length, i == last_read_ + 1);
-    source = &buffer_;
-    at = static_cast<std::size_t>(start - buffer_at_);
-  }
-  last_read_ = i;
-  fields.resize(static_cast<std::size_t>(get_length(*source, at)));
+  return {start, static_cast<std::size_t>(stop - start)};
+}
+
+namespace {
+void decode(const std::string& source, std::size_t at, std::vector<std::string>& fields) {
+  fields.resize(static_cast<std::size_t>(get_length(source, at)));
   for (auto& f : fields) {
-    const auto n = static_cast<std::size_t>(get_length(*source, at));
-    f.assign(*source, at, n);
+    const auto n = static_cast<std::size_t>(get_length(source, at));
+    f.assign(source, at, n);
     at += n;
   }
+}
+}  // namespace
+
+void FieldStore::read(std::size_t i, std::vector<std::string>& fields) const {
+  const auto [start, length] = extent(i);
+  if (start >= end_) {  // still in memory
+    decode(pending_, static_cast<std::size_t>(start - end_), fields);
+  } else {
+    fill(start, length, i == last_read_ + 1);
+    decode(buffer_, static_cast<std::size_t>(start - buffer_at_), fields);
+  }
+  last_read_ = i;
+}
+
+void FieldStore::read_concurrently(std::size_t i, std::string& scratch, std::vector<std::string>& fields) const {
+  const auto [start, length] = extent(i);
+  if (start >= end_) return decode(pending_, static_cast<std::size_t>(start - end_), fields);
+  scratch.resize(length);
+  read_file(start, scratch.data(), length);
+  decode(scratch, 0, fields);
 }
 
 std::vector<std::string> FieldStore::read(std::size_t i) const {

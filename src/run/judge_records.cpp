@@ -33,7 +33,7 @@ Judgement judge_records(RecordTable& t, const ActiveTests& tests, const Membersh
   const auto extras = tests.extra_columns();
   for (const auto& check : tests.checks) check->prepare(t);
   Judgement j;
-  j.verdicts = std::make_unique<VerdictStore>(n);
+  j.verdicts = std::make_unique<VerdictStore>(n, sampling_plan(s.sampling).verdict_bytes);
   j.scores.resize(n);
 
   // A record's verdict: the taxon tests' findings (if any), then every record check's.

@@ -33,52 +33,57 @@ void write_outputs(const RunContext& run, const Judgement* judgement, const std:
   Progress* progress = run.settings.progress;
   if (progress) progress->stage("writing", n, "records");
   const bool rows_wanted = std::any_of(outputs.begin(), outputs.end(), [](RecordSink* o) { return o->wants_row(); });
-  // In batches: the stores are read in order on one thread, the rows formatted in parallel, the
-  // outputs fed in order on one thread.
-  constexpr std::size_t kBatch = 4096;
+  const bool lines_wanted = std::any_of(outputs.begin(), outputs.end(), [](RecordSink* o) { return o->wants_csv_line(); });
+  // In batches: the fields read in order on one thread (the store's buffered sequential read);
+  // the verdicts read and the rows formatted in parallel; the summary counted and the outputs fed
+  // in order on one thread. Each batch slot's vectors and strings are reused from batch to batch.
+  constexpr std::size_t kBatch = 8192;
   struct Pending {
     std::vector<std::string> fields, codes, row;
+    std::string line;
     Verdict verdict;
+    VerdictStore::Scratch scratch;
+    bool scored = false;
   };
   std::vector<Pending> batch(std::min(kBatch, n));
   for (std::size_t start = 0; start < n; start += kBatch) {
     const std::size_t size = std::min(kBatch, n - start);
-    for (std::size_t k = 0; k < size; ++k) {
-      const std::size_t i = rows[start + k];
-      Pending& p = batch[k];
-      t.points.fields.read(i, p.fields);
-      p.codes = t.codes.of(i);
-      bool scored = t.has_any_value(i);  // for `sample`, a record is done once it has values
-      if (judgement) {
-        judgement->verdicts->get(i, p.verdict);
-        for (const auto& c : p.verdict.codes)
-          if (std::find(p.codes.begin(), p.codes.end(), c) == p.codes.end()) p.codes.push_back(c);
-        scored = judgement->scores[i].has_value();
-        summary.flagged += scored && !p.verdict.flags.empty();
-      }
-      ++summary.read;
-      if (scored) {
-        ++summary.scored;
-      } else {
-        // a screen's status always says why (a note such as coord_decimal_comma never does)
-        if (judgement && reason::why_not_scored(p.codes) == reason::no_values &&
-            std::find(p.codes.begin(), p.codes.end(), reason::no_values) == p.codes.end())
-          p.codes.push_back(reason::no_values);
-        ++summary.not_scored[reason::why_not_scored(p.codes)];
-      }
-      for (const auto& c : p.codes) ++summary.codes[c];
-    }
+    for (std::size_t k = 0; k < size; ++k) t.points.fields.read(rows[start + k], batch[k].fields);
     auto outcome = [&](std::size_t k) {
       const std::size_t i = rows[start + k];
       return RecordOutcome{i, &batch[k].fields, &batch[k].codes, ranks[i], judgement ? &batch[k].verdict : nullptr,
-                           &batch[k].row};
+                           &batch[k].row, &batch[k].line};
     };
-    if (rows_wanted) {
 #pragma omp parallel for schedule(static)
-      for (std::ptrdiff_t k = 0; k < static_cast<std::ptrdiff_t>(size); ++k)
-        batch[static_cast<std::size_t>(k)].row = record_row(t, outcome(static_cast<std::size_t>(k)));
+    for (std::ptrdiff_t kk = 0; kk < static_cast<std::ptrdiff_t>(size); ++kk) {
+      const auto k = static_cast<std::size_t>(kk);
+      const std::size_t i = rows[start + k];
+      Pending& p = batch[k];
+      p.codes = t.codes.of(i);
+      p.scored = t.has_any_value(i);  // for `sample`, a record is done once it has values
+      if (judgement) {
+        judgement->verdicts->get(i, p.verdict, p.scratch);
+        for (const auto& c : p.verdict.codes)
+          if (std::find(p.codes.begin(), p.codes.end(), c) == p.codes.end()) p.codes.push_back(c);
+        p.scored = judgement->scores[i].has_value();
+        // a screen's status always says why (a note such as coord_decimal_comma never does)
+        if (!p.scored && reason::why_not_scored(p.codes) == reason::no_values &&
+            std::find(p.codes.begin(), p.codes.end(), reason::no_values) == p.codes.end())
+          p.codes.push_back(reason::no_values);
+      }
+      if (rows_wanted) p.row = record_row(t, outcome(k));
+      if (lines_wanted) {
+        p.line.clear();
+        append_record_csv(t, outcome(k), p.line);
+      }
     }
     for (std::size_t k = 0; k < size; ++k) {
+      const Pending& p = batch[k];
+      ++summary.read;
+      summary.flagged += judgement && p.scored && !p.verdict.flags.empty();
+      if (p.scored) ++summary.scored;
+      else ++summary.not_scored[reason::why_not_scored(p.codes)];
+      for (const auto& c : p.codes) ++summary.codes[c];
       const RecordOutcome o = outcome(k);
       for (std::size_t s = 0; s < outputs.size(); ++s) timed(s, [&](RecordSink& out) { out.record(o); });
     }

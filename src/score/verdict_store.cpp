@@ -52,25 +52,25 @@ void VerdictStore::put(std::size_t record, const Verdict& v) {
   slot_[record] = store_.size() - 1;
 }
 
-void VerdictStore::get(std::size_t record, Verdict& v) const {
-  store_.read(slot_[record], fields_);
+void VerdictStore::get(std::size_t record, Verdict& v, Scratch& scratch) const {
+  const std::vector<std::string>& fields = scratch.fields;
+  store_.read_concurrently(slot_[record], scratch.bytes, scratch.fields);
   std::size_t at = 0;
   v.score.reset();
-  if (!fields_[0].empty()) v.score = take_number(fields_[0], at);
+  if (!fields[0].empty()) v.score = take_number(fields[0], at);
   std::size_t field = 1;
-  take_list(fields_, field, v.flags);
-  take_list(fields_, field, v.reasons);
-  take_list(fields_, field, v.codes);
-  v.tests.clear();
-  for (; field < fields_.size(); ++field) {
-    const std::string& bits = fields_[field];
-    TestResult t;
+  take_list(fields, field, v.flags);
+  take_list(fields, field, v.reasons);
+  take_list(fields, field, v.codes);
+  v.tests.resize(fields.size() - field);  // reusing the caller's vectors: no allocation per record
+  for (TestResult& t : v.tests) {
+    const std::string& bits = fields[field++];
     t.tested = bits[0] == '1';
     at = 1;
     t.statistic = take_number(bits, at);
     t.threshold = take_number(bits, at);
+    t.extras.clear();
     while (at < bits.size()) t.extras.push_back(take_number(bits, at));
-    v.tests.push_back(std::move(t));
   }
 }
 

@@ -203,6 +203,7 @@ SamplingPlan sampling_plan(const SamplingSettings& s) {
   // sampling works on ~100 bytes per record and layer pass; a quarter of the limit for that
   plan.chunk_records = std::max<std::size_t>(1024, (s.memory_limit_mb << 20) / 4 / 100);
   plan.landscape_bytes = (s.memory_limit_mb << 20) / 8;
+  plan.verdict_bytes = (s.memory_limit_mb << 20) / 16;
   return plan;
 }
 

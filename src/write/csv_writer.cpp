@@ -1,10 +1,17 @@
 #include "envsift/write/csv_writer.hpp"
 
 namespace envsift {
+namespace {
+constexpr std::size_t kWriteBytes = std::size_t(4) << 20;  // one write(2) per 4 MiB
+}
 
-void append_csv_field(std::string& out, const std::string& field) {
-  const bool quote = field.find_first_of(",\"\r\n") != std::string::npos ||
-                     (!field.empty() && (field.front() == ' ' || field.back() == ' '));
+void append_csv_field(std::string& out, std::string_view field) {
+  // one pass over the field (find_first_of would search the set once per character)
+  bool quote = !field.empty() && (field.front() == ' ' || field.back() == ' ');
+  for (std::size_t i = 0; i < field.size() && !quote; ++i) {
+    const char c = field[i];
+    quote = c == ',' || c == '"' || c == '\r' || c == '\n';
+  }
   if (!quote) {
     out += field;
     return;
@@ -24,7 +31,22 @@ void CsvWriter::row(const std::vector<std::string>& fields) {
     append_csv_field(buffer_, fields[i]);
   }
   buffer_ += '\n';
-  file_.write(buffer_);
+  lines(buffer_);
+}
+
+void CsvWriter::lines(std::string_view text) {
+  pending_ += text;
+  if (pending_.size() < kWriteBytes) return;
+  file_.write(pending_);
+  pending_.clear();
+}
+
+void CsvWriter::finish() {
+  if (finished_) return;
+  finished_ = true;
+  if (!pending_.empty()) file_.write(pending_);
+  pending_.clear();
+  file_.finish();
 }
 
 }  // namespace envsift

@@ -1,15 +1,56 @@
 #include "envsift/write/record_columns.hpp"
 
+#include <charconv>
+#include <string_view>
+
 #include "envsift/reason_codes.hpp"
+#include "envsift/write/csv_writer.hpp"
 #include "envsift/write/value_format.hpp"
 
 namespace envsift {
 namespace {
 
-std::string join(const std::vector<std::string>& parts, const char* separator) {
-  std::string s;
-  for (const auto& p : parts) s += (s.empty() ? "" : separator) + p;
-  return s;
+// Every cell of a record's row, in column order, as text handed to `cell` (a string_view valid
+// only during the call): the one definition of the row, for both its forms below.
+template <class Cell>
+void each_cell(const RecordTable& t, const RecordOutcome& o, Cell&& cell) {
+  char number[kNumberChars];
+  auto put = [&](char* end) { cell(std::string_view(number, static_cast<std::size_t>(end - number))); };
+  for (const auto& f : *o.fields) cell(std::string_view(f));
+  const auto r = static_cast<Eigen::Index>(o.record);
+  for (std::size_t l = 0; l < t.layers.size(); ++l) {
+    const bool derived = !t.layers[l].derived_from.empty();
+    if (t.layers_are_columns && !derived) continue;  // already an input column
+    const auto c = static_cast<Eigen::Index>(l);
+    const bool float32 = t.layers[l].float32_values;
+    put(put_value(number, t.values(r, c), float32));
+    if (t.has_discs && !derived) {
+      put(put_value(number, t.discs.min(r, c), float32));
+      put(put_statistic(number, t.discs.mean(r, c)));
+      put(put_value(number, t.discs.max(r, c), float32));
+    }
+  }
+  std::string joined;
+  auto join = [&](const std::vector<std::string>& parts, std::string_view separator) {
+    joined.clear();
+    for (const auto& p : parts) (joined.empty() ? joined : joined.append(separator)).append(p);
+    cell(std::string_view(joined));
+  };
+  if (o.codes->empty()) cell(std::string_view(reason::ok));
+  else join(*o.codes, ";");
+  if (!o.verdict) return;
+  const Verdict& v = *o.verdict;
+  if (o.rank) put(std::to_chars(number, number + kNumberChars, o.rank).ptr);
+  else cell(std::string_view());
+  if (v.score) put(put_score(number, *v.score));
+  else cell(std::string_view());
+  join(v.flags, ";");
+  join(v.reasons, "; ");
+  for (const TestResult& test : v.tests) {
+    put(test.tested ? put_statistic(number, test.statistic) : number);
+    put(test.tested ? put_statistic(number, test.threshold) : number);
+    for (double extra : test.extras) put(test.tested ? put_statistic(number, extra) : number);
+  }
 }
 
 }  // namespace
@@ -42,33 +83,19 @@ std::vector<std::string> record_header(const RecordTable& t, const ActiveTests* 
 }
 
 std::vector<std::string> record_row(const RecordTable& t, const RecordOutcome& o) {
-  std::vector<std::string> row = *o.fields;
-  const auto r = static_cast<Eigen::Index>(o.record);
-  for (std::size_t l = 0; l < t.layers.size(); ++l) {
-    const bool derived = !t.layers[l].derived_from.empty();
-    if (t.layers_are_columns && !derived) continue;  // already an input column
-    const auto c = static_cast<Eigen::Index>(l);
-    const bool float32 = t.layers[l].float32_values;
-    row.push_back(format_value(t.values(r, c), float32));
-    if (t.has_discs && !derived) {
-      row.push_back(format_value(t.discs.min(r, c), float32));
-      row.push_back(format_statistic(t.discs.mean(r, c)));
-      row.push_back(format_value(t.discs.max(r, c), float32));
-    }
-  }
-  row.push_back(o.codes->empty() ? reason::ok : join(*o.codes, ";"));
-  if (!o.verdict) return row;
-  const Verdict& v = *o.verdict;
-  row.push_back(o.rank ? std::to_string(o.rank) : "");
-  row.push_back(v.score ? format_score(*v.score) : "");
-  row.push_back(join(v.flags, ";"));
-  row.push_back(join(v.reasons, "; "));
-  for (const TestResult& test : v.tests) {
-    row.push_back(test.tested ? format_statistic(test.statistic) : "");
-    row.push_back(test.tested ? format_statistic(test.threshold) : "");
-    for (double extra : test.extras) row.push_back(test.tested ? format_statistic(extra) : "");
-  }
+  std::vector<std::string> row;
+  each_cell(t, o, [&](std::string_view text) { row.emplace_back(text); });
   return row;
+}
+
+void append_record_csv(const RecordTable& t, const RecordOutcome& o, std::string& line) {
+  bool first = true;
+  each_cell(t, o, [&](std::string_view text) {
+    if (!first) line += ',';
+    first = false;
+    append_csv_field(line, text);
+  });
+  line += '\n';
 }
 
 }  // namespace envsift

@@ -2,29 +2,41 @@
 
 #include <charconv>
 #include <cmath>
-#include <cstdio>
 
 namespace envsift {
 
+// C++17 [charconv.to.chars]: to_chars with a format and precision writes what printf would with
+// the matching conversion in the "C" locale, so these are byte for byte the %.6g and %.3f the
+// outputs have always had.
+char* put_value(char* out, double value, bool as_float32) {
+  if (std::isnan(value)) return out;
+  return (as_float32 ? std::to_chars(out, out + kNumberChars, static_cast<float>(value))
+                     : std::to_chars(out, out + kNumberChars, value))
+      .ptr;
+}
+
+char* put_statistic(char* out, double value) {
+  if (std::isnan(value)) return out;
+  return std::to_chars(out, out + kNumberChars, value, std::chars_format::general, 6).ptr;
+}
+
+char* put_score(char* out, double score) {
+  return std::to_chars(out, out + kNumberChars, score, std::chars_format::fixed, 3).ptr;
+}
+
 std::string format_value(double value, bool as_float32) {
-  if (std::isnan(value)) return "";
-  char buf[64];
-  auto res = as_float32 ? std::to_chars(buf, buf + sizeof buf, static_cast<float>(value))
-                        : std::to_chars(buf, buf + sizeof buf, value);
-  return std::string(buf, res.ptr);
+  char buf[kNumberChars];
+  return std::string(buf, put_value(buf, value, as_float32));
 }
 
 std::string format_statistic(double value) {
-  if (std::isnan(value)) return "";
-  char buf[64];
-  std::snprintf(buf, sizeof buf, "%.6g", value);
-  return buf;
+  char buf[kNumberChars];
+  return std::string(buf, put_statistic(buf, value));
 }
 
 std::string format_score(double score) {
-  char buf[64];
-  std::snprintf(buf, sizeof buf, "%.3f", score);
-  return buf;
+  char buf[kNumberChars];
+  return std::string(buf, put_score(buf, score));
 }
 
 double score_as_written(double score) { return std::stod(format_score(score)); }

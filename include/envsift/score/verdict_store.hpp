@@ -13,17 +13,22 @@ namespace envsift {
 
 class VerdictStore {
  public:
-  explicit VerdictStore(std::size_t records) : slot_(records, kNone) {}
+  // `memory_bytes`: verdicts kept in memory before they go to disk (FieldStore).
+  explicit VerdictStore(std::size_t records, std::size_t memory_bytes = 0) : store_(memory_bytes), slot_(records, kNone) {}
   void put(std::size_t record, const Verdict& verdict);  // thread-safe; once per record
   bool has(std::size_t record) const { return slot_[record] != kNone; }
-  void get(std::size_t record, Verdict& verdict) const;  // one thread
+  // Safe from several threads at once once judging is over; `scratch` is the caller's to reuse.
+  struct Scratch {
+    std::string bytes;
+    std::vector<std::string> fields;
+  };
+  void get(std::size_t record, Verdict& verdict, Scratch& scratch) const;
 
  private:
   static constexpr std::size_t kNone = static_cast<std::size_t>(-1);
   std::mutex lock_;
   FieldStore store_;
   std::vector<std::size_t> slot_;
-  mutable std::vector<std::string> fields_;
 };
 
 }  // namespace envsift

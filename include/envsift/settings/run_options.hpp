@@ -18,13 +18,15 @@ const std::vector<OptionSpec>& screen_options();    // --value-columns, --single
 void validate_for_sample(const ScreenSettings& settings);
 
 // What the settings mean for sampling, derived once: the interpolation, the block cache in
-// bytes (at most a quarter of the memory limit), the records sampled at a time, and the memory
-// for the landscapes drawn at a time (an eighth of the limit).
+// bytes (at most a quarter of the memory limit), the records sampled at a time, the memory for
+// the landscapes drawn at a time (an eighth of the limit) and for verdicts waiting to be written
+// before they go to disk (a sixteenth).
 struct SamplingPlan {
   Interpolation method = Interpolation::nearest;
   std::size_t cache_bytes = 0;
   std::size_t chunk_records = 0;
   std::size_t landscape_bytes = 0;
+  std::size_t verdict_bytes = 0;
 };
 SamplingPlan sampling_plan(const SamplingSettings& settings);
 

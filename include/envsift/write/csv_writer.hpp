@@ -1,6 +1,7 @@
 // CSV rows (RFC 4180) into an AtomicFile: nothing appears at the target until commit().
 #pragma once
 #include <string>
+#include <string_view>
 #include <vector>
 
 #include "envsift/write/atomic_file.hpp"
@@ -11,15 +12,21 @@ class CsvWriter {
  public:
   explicit CsvWriter(std::string path) : file_(std::move(path)) {}
   void row(const std::vector<std::string>& fields);
-  void finish() { file_.finish(); }
-  void commit() { file_.commit(); }
+  // Rows already encoded (append_record_csv), gathered into large writes.
+  void lines(std::string_view text);
+  void finish();
+  void commit() {
+    finish();
+    file_.commit();
+  }
 
  private:
   AtomicFile file_;
-  std::string buffer_;
+  std::string buffer_, pending_;
+  bool finished_ = false;
 };
 
 // RFC 4180: a field is quoted when it holds a comma, quote, CR or LF, or starts/ends with a space.
-void append_csv_field(std::string& out, const std::string& field);
+void append_csv_field(std::string& out, std::string_view field);
 
 }  // namespace envsift

@@ -14,5 +14,7 @@ namespace envsift {
 std::vector<std::string> added_columns(const ActiveTests* tests, const std::string& prefix = "");
 std::vector<std::string> record_header(const RecordTable& table, const ActiveTests* tests, const std::string& prefix = "");
 std::vector<std::string> record_row(const RecordTable& table, const RecordOutcome& outcome);
+// The same row as one CSV line (RFC 4180, ending in \n), appended to `line`: no string per cell.
+void append_record_csv(const RecordTable& table, const RecordOutcome& outcome, std::string& line);
 
 }  // namespace envsift

@@ -35,6 +35,7 @@ struct RecordOutcome {
   const Verdict* verdict = nullptr;                 // null for `sample`
   const std::vector<std::string>* row = nullptr;    // the record table's row as written, for
                                                     // outputs that ask for it (wants_row)
+  const std::string* csv_line = nullptr;            // the same row as a CSV line (wants_csv_line)
 };
 
 class RecordSink {
@@ -45,8 +46,10 @@ class RecordSink {
   // Thread-safe; once per judged taxon, `verdicts[r]` for its r-th record.
   virtual void taxon(const JudgedTaxon&, const std::vector<Verdict>&) {}
   virtual void record(const RecordOutcome& outcome) = 0;  // in output order, one thread
-  // Whether record() needs `outcome.row` (formatted in parallel, once for every output).
+  // Whether record() needs `outcome.row` or `outcome.csv_line` (formatted in parallel, once for
+  // every output).
   virtual bool wants_row() const { return false; }
+  virtual bool wants_csv_line() const { return false; }
   virtual void finish(const RunSummary& summary) = 0;
   virtual void commit() = 0;
 };

@@ -1,18 +1,27 @@
 // Number formatting for outputs: the shortest text that reads back to the same number, so
-// outputs are exact, compact and identical on every run.
+// outputs are exact, compact and identical on every run. Each format has a form that writes into
+// a caller's buffer (std::to_chars, no allocation: the writers format millions of rows) and one
+// that returns a string.
 #pragma once
 #include <string>
 
 namespace envsift {
 
+// Room for any number these functions write (%.3f of the largest double has 313 characters).
+constexpr int kNumberChars = 320;
+
 // NaN → empty. `as_float32`: the value came from a Float32 cell; print the shortest text that
 // reads back to that 32-bit float (what GDAL's tools show), not its 17-digit double expansion.
+// Writes into [out, out + kNumberChars) and returns the end.
+char* put_value(char* out, double value, bool as_float32 = false);
 std::string format_value(double value, bool as_float32 = false);
 
-// Test statistics and cutoffs: six significant digits (NaN → empty).
+// Test statistics and cutoffs: six significant digits, as printf's %.6g (NaN → empty).
+char* put_statistic(char* out, double value);
 std::string format_statistic(double value);
 
-// Scores with three decimals.
+// Scores with three decimals, as printf's %.3f.
+char* put_score(char* out, double score);
 std::string format_score(double score);
 // The score as written (format_score read back): records are ranked by it, so that merged
 // shards rank exactly as a single run and a reader of the file sees the order it was ranked in.

@@ -10,8 +10,8 @@ class CsvOutput : public RecordSink {
   explicit CsvOutput(const std::string& path) : out_(path) {}
   std::string name() const override { return "csv"; }
   void begin(const RunContext& run) override { out_.row(run.header); }
-  bool wants_row() const override { return true; }
-  void record(const RecordOutcome& o) override { out_.row(*o.row); }
+  bool wants_csv_line() const override { return true; }
+  void record(const RecordOutcome& o) override { out_.lines(*o.csv_line); }
   void finish(const RunSummary&) override { out_.finish(); }
   void commit() override { out_.commit(); }
 
