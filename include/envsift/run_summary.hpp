@@ -17,10 +17,17 @@ struct RunSummary {
   std::size_t flagged = 0;
   std::map<std::string, std::size_t> not_scored;  // by the code that prevented scoring (reason::why_not_scored)
   std::map<std::string, std::size_t> codes;       // every reason code, over all records
+  std::map<std::string, std::size_t> code_records;  // by a code's part before ':' (nodata), records with any
   std::vector<std::string> warnings;              // e.g. a layer no record falls on
   StageSeconds seconds;                           // time per stage (and per test, CPU time)
   std::string line() const;                       // one line for stderr
-  std::string codes_line() const;                 // one line: every code and its count
+  // One line: every code and its count; a code on several layers, columns or tests as one item
+  // with the records it touches (`nodata on 19 layers 187,000`), so a big run's line stays short.
+  std::string codes_line() const;
+  void count_codes(const std::vector<std::string>& record_codes);  // one record's codes
 };
+
+// 1234567 → "1,234,567": counts on stderr.
+std::string with_thousands(std::size_t n);
 
 }  // namespace envsift

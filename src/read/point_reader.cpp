@@ -77,7 +77,13 @@ PointTable read_delimited(std::istream& in, const std::string& path, const Reade
   std::vector<std::string> fields;
   std::vector<std::string> spanning;  // "5-7": the lines of records that span several
   std::size_t spans = 0;
+  std::size_t reported = 0;  // records told to the progress
+  auto report = [&](std::size_t step) {
+    if (o.progress && table.records.size() - reported >= step) o.progress->advance(table.records.size() - reported), reported = table.records.size();
+  };
+  if (o.progress) o.progress->stage("reading", 0, "records");
   while (reader.next(fields, line)) {
+    report(std::size_t(1) << 16);
     if (fields.size() == 1 && fields[0].empty()) continue;  // blank line: not a record
     std::vector<std::string> codes;
     bool converted = false;
@@ -99,6 +105,7 @@ PointTable read_delimited(std::istream& in, const std::string& path, const Reade
     }
     builder.add(fields, line, codes);
   }
+  report(1);
   if (!to_wgs84 && builder.metre_like() * 2 > table.records.size())
     table.warnings.push_back(path + ": " + std::to_string(builder.metre_like()) + " of " + std::to_string(table.records.size()) +
                              " records have coordinates out of range for degrees that look like metres: if the file "

@@ -97,7 +97,8 @@ RunSummary merge_shards(const std::vector<std::string>& paths, const std::string
     std::vector<std::string> codes;
     std::stringstream status_text(row[status]);
     for (std::string code; std::getline(status_text, code, ';');)
-      if (code != reason::ok) codes.push_back(code), ++summary.codes[code];
+      if (code != reason::ok) codes.push_back(code);
+    summary.count_codes(codes);
     if (scores[i]) ++summary.scored;
     else ++summary.not_scored[reason::why_not_scored(codes)];
     if (!row[flags].empty()) ++summary.flagged;

@@ -83,7 +83,7 @@ void write_outputs(const RunContext& run, const Judgement* judgement, const std:
       summary.flagged += judgement && p.scored && !p.verdict.flags.empty();
       if (p.scored) ++summary.scored;
       else ++summary.not_scored[reason::why_not_scored(p.codes)];
-      for (const auto& c : p.codes) ++summary.codes[c];
+      summary.count_codes(p.codes);
       const RecordOutcome o = outcome(k);
       for (std::size_t s = 0; s < outputs.size(); ++s) timed(s, [&](RecordSink& out) { out.record(o); });
     }

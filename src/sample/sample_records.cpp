@@ -70,7 +70,9 @@ RecordTable sample_records(const ScreenSettings& s, const std::vector<std::strin
   Stopwatch clock;
   const SamplingPlan plan = sampling_plan(s.sampling);
   const auto specs = expand_layer_arguments(s.input.layers);
-  t.points = read_points(s.input.points, s.input.reader);
+  ReaderOptions reading = s.input.reader;
+  reading.progress = s.progress;
+  t.points = read_points(s.input.points, reading);
   t.warnings = t.points.warnings;
   clock.lap(t.seconds, "read points");
   const std::size_t n = t.size();

@@ -5,6 +5,7 @@
 #include <string>
 
 #include "envsift/occurrence.hpp"
+#include "envsift/progress.hpp"
 
 namespace envsift {
 
@@ -31,6 +32,7 @@ struct ReaderOptions {
   bool require_taxon = false;  // screening needs a taxon column; sampling does not
   std::string vector_layer;    // layer of a multi-layer vector source; empty = the first
   bool coordinates_optional = false;  // screening pre-sampled values: coordinates are not needed
+  Progress* progress = nullptr;       // told of the records read (a stage of unknown total)
 };
 
 // Reads every record; none is dropped. Records with unusable coordinates carry reason codes in
