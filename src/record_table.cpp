@@ -34,7 +34,7 @@ std::optional<std::size_t> RecordTable::layer_index(const std::string& name) con
 }
 
 bool RecordTable::has_any_value(std::size_t record) const {
-  return values.row(static_cast<Eigen::Index>(record)).array().isFinite().any();
+  return values.any_finite(static_cast<Eigen::Index>(record));
 }
 
 std::pair<double, double> RecordTable::range(std::size_t record, std::size_t layer) const {

@@ -35,7 +35,7 @@ struct RecordTable {
   PointTable points;                // the records as read, original fields on disk
   std::vector<LayerInfo> layers;    // each layer's facts, read once (only the name for value columns)
   bool layers_are_columns = false;  // values came from input columns: no layer columns are added
-  Eigen::MatrixXd values;           // records × layers, NaN = missing
+  ValueTable values;                // records × layers, NaN = missing (floats where exact)
   std::vector<std::uint64_t> cells; // equal keys = same cells (or same values)
   bool has_discs = false;
   DiscSamples discs;                // valid when has_discs

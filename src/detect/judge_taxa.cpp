@@ -17,7 +17,7 @@ std::vector<JudgedTaxon> judge_taxa(const JudgingInput& in, const std::vector<st
                                        std::vector<double>* test_seconds, const PopulationOptions& population_options) {
   std::mutex timing;
   if (test_seconds) test_seconds->assign(detectors.size(), 0.0);
-  const auto L = in.values.cols();
+  const auto L = static_cast<Eigen::Index>(in.columns.size());
   const auto groups = group_by_taxon(in.taxon_of, in.taxon_names, in.eligible);
   std::vector<JudgedTaxon> result(groups.size());
   std::vector<std::size_t> order(groups.size());
@@ -59,7 +59,7 @@ std::vector<JudgedTaxon> judge_taxa(const JudgingInput& in, const std::vector<st
     screened.records = g.records;
     for (Eigen::Index r = 0; r < rows; ++r) {
       const auto i = static_cast<Eigen::Index>(g.records[static_cast<std::size_t>(r)]);
-      records.row(r) = in.values.row(i);
+      for (Eigen::Index c = 0; c < L; ++c) records(r, c) = in.values(i, in.columns[static_cast<std::size_t>(c)]);
       if (in.lower) lower.row(r) = in.lower->row(i), upper.row(r) = in.upper->row(i);
       const bool new_place = seen.insert(in.cells[static_cast<std::size_t>(i)]).second;
       if (new_place) place_rows.push_back(r);

@@ -74,15 +74,11 @@ Judgement judge_records(RecordTable& t, const ActiveTests& tests, const Membersh
   for (std::size_t l = 0; l < t.layers.size(); ++l)
     if (t.layers[l].judged) judged.push_back(static_cast<Eigen::Index>(l)), layer_names.push_back(t.layers[l].spec.name);
   const bool every_layer = judged.size() == t.layers.size();
-  Eigen::MatrixXd values, lower, upper;  // copies only when some layer is left out
-  if (!every_layer) {
-    values = t.values(Eigen::all, judged);
-    if (t.has_discs) lower = t.discs.min(Eigen::all, judged), upper = t.discs.max(Eigen::all, judged);
-  }
-  const Eigen::MatrixXd& judged_values = every_layer ? t.values : values;
+  Eigen::MatrixXd lower, upper;  // copies only when some layer is left out
+  if (!every_layer && t.has_discs) lower = t.discs.min(Eigen::all, judged), upper = t.discs.max(Eigen::all, judged);
   const Eigen::MatrixXd* judged_lower = !t.has_discs ? nullptr : every_layer ? &t.discs.min : &lower;
   const Eigen::MatrixXd* judged_upper = !t.has_discs ? nullptr : every_layer ? &t.discs.max : &upper;
-  JudgingInput input{judged_values, t.cells, m.taxon_of, m.taxon_names, m.eligible, layer_names, judged_lower, judged_upper};
+  JudgingInput input{t.values, judged, t.cells, m.taxon_of, m.taxon_names, m.eligible, layer_names, judged_lower, judged_upper};
   std::unique_ptr<LandscapeSampler> sampler;
   double landscape_seconds = 0;
   if (t.stack) {  // layers, not value columns: the landscape test can be given its landscape

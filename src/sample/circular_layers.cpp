@@ -36,7 +36,7 @@ void add_circular_components(RecordTable& t, const std::vector<std::size_t>& cir
   const auto n = static_cast<Eigen::Index>(t.size());
   const auto before = static_cast<Eigen::Index>(t.layers.size());
   const auto after = before + 2 * static_cast<Eigen::Index>(circular.size());
-  t.values.conservativeResize(n, after);
+  for (Eigen::Index c = before; c < after; ++c) t.values.add_column(false);
   if (t.has_discs)
     for (Eigen::MatrixXd* m : {&t.discs.min, &t.discs.mean, &t.discs.max}) {
       m->conservativeResize(n, after);
@@ -54,7 +54,7 @@ void add_circular_components(RecordTable& t, const std::vector<std::size_t>& cir
       const bool sine = part[1] == 's';
       for (Eigen::Index i = 0; i < n; ++i) {
         const double radians = t.values(i, static_cast<Eigen::Index>(l)) * M_PI / 180;
-        t.values(i, column) = sine ? std::sin(radians) : std::cos(radians);
+        t.values.set(i, column, sine ? std::sin(radians) : std::cos(radians));
       }
       ++column;
     }

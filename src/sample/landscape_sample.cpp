@@ -50,7 +50,7 @@ double LandscapeSampler::buffer_radius_m(const TaxonPlaces& t) const {
 // circular component computed from it as the records' are (circular_layers.cpp).
 // Rows [first, first + rows) of the samples.
 Eigen::MatrixXd LandscapeSampler::judged_values(const Samples& all, Eigen::Index first, Eigen::Index rows) const {
-  const auto s = all.values.middleRows(first, rows);
+  const Eigen::MatrixXd s = all.values.block(first, rows);
   Eigen::MatrixXd out(rows, static_cast<Eigen::Index>(judged_.size()));
   for (std::size_t c = 0; c < judged_.size(); ++c) {
     const LayerInfo& layer = layers_[judged_[c]];

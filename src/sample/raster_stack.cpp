@@ -78,6 +78,8 @@ LayerInfo describe_layer(const LayerSpec& spec, const std::string& assume_crs) {
   band->GetBlockSize(&info.block_width, &info.block_height);
   const GDALDataType type = band->GetRasterDataType();
   info.float32_values = type == GDT_Float32 && info.scale == 1 && info.offset == 0;
+  info.float_cells = (type == GDT_Byte || type == GDT_UInt16 || type == GDT_Int16 || type == GDT_Float32) &&
+                     info.scale == 1 && info.offset == 0;
   if (!GDALDataTypeIsFloating(type) && !GDALDataTypeIsComplex(type) && (info.scale != 1 || info.offset != 0))
     info.decimals = std::max(decimals_of(info.scale), decimals_of(info.offset));
   return info;
@@ -185,8 +187,9 @@ Samples RasterStack::sample(const std::vector<double>& longitude, const std::vec
   const std::size_t n = longitude.size(), L = layers_.size();
   Samples out;
   out.layer_count = L;
-  out.values = Eigen::MatrixXd::Constant(static_cast<Eigen::Index>(n), static_cast<Eigen::Index>(L),
-                                         std::numeric_limits<double>::quiet_NaN());
+  std::vector<bool> as_float;  // a cell's own value, when a float holds it (value_table.hpp)
+  for (const auto& layer : layers_) as_float.push_back(layer.float_cells && method == Interpolation::nearest);
+  out.values = ValueTable(n, as_float);
   out.status.assign(n * L, CellStatus::no_point);
   out.cell.assign(n, 0);
   impl_->handles.reset(L);
@@ -250,7 +253,7 @@ Samples RasterStack::sample(const std::vector<double>& longitude, const std::vec
             }
           }
           out.status[p.record * L + l] = CellStatus::ok;
-          out.values(p.record, static_cast<Eigen::Index>(l)) = v;
+          out.values.set(p.record, static_cast<Eigen::Index>(l), v);
         }
         if (progress_) progress_->advance(group_start[static_cast<std::size_t>(g) + 1] - group_start[static_cast<std::size_t>(g)]);
       } catch (...) {

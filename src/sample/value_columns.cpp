@@ -32,7 +32,7 @@ RecordTable read_value_columns(const ScreenSettings& s, const std::vector<std::s
     t.layers.push_back(column);
   }
   const std::size_t n = t.size();
-  t.values = Eigen::MatrixXd::Constant(static_cast<Eigen::Index>(n), static_cast<Eigen::Index>(index.size()), std::nan(""));
+  t.values = ValueTable(n, std::vector<bool>(index.size(), false));  // parsed text: doubles
   t.cells.assign(n, 0);
   t.codes.resize(n);
   t.radius_m.assign(n, 0.0);
@@ -47,7 +47,7 @@ RecordTable read_value_columns(const ScreenSettings& s, const std::vector<std::s
     for (std::size_t l = 0; l < index.size(); ++l) {
       const ParsedNumber v = parse_number(fields[index[l]]);
       if (v.problem.empty()) {
-        t.values(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(l)) = v.value;
+        t.values.set(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(l), v.value);
         std::uint64_t bits;
         std::memcpy(&bits, &v.value, sizeof bits);
         key = fnv_mix(key, bits);

@@ -4,6 +4,7 @@
 #include <gdal_priv.h>
 #include <gtest/gtest.h>
 
+#include "../raster_support.hpp"
 #include "../support.hpp"
 #include "envsift/sample/raster_stack.hpp"
 
@@ -16,19 +17,7 @@ using namespace envsift::testing;
 //   10 20
 //   30 40
 std::string two_by_two(const std::string& dir, double nodata = -9999) {
-  GDALAllRegister();
-  const std::string path = dir + "/grid.tif";
-  auto* ds = GetGDALDriverManager()->GetDriverByName("GTiff")->Create(path.c_str(), 2, 2, 1, GDT_Float64, nullptr);
-  double gt[6] = {0, 1, 0, 2, 0, -1};
-  ds->SetGeoTransform(gt);
-  OGRSpatialReference srs;
-  srs.importFromEPSG(4326);
-  ds->SetSpatialRef(&srs);
-  double v[4] = {10, 20, 30, 40};
-  ds->GetRasterBand(1)->SetNoDataValue(nodata);
-  if (ds->GetRasterBand(1)->RasterIO(GF_Write, 0, 0, 2, 2, v, 2, 2, GDT_Float64, 0, 0) != CE_None) ADD_FAILURE();
-  GDALClose(ds);
-  return path;
+  return write_raster(dir + "/grid.tif", 2, 2, GDT_Float64, {0, 1, 0, 2, 0, -1}, {10, 20, 30, 40}, nodata);
 }
 
 TEST(BilinearSampling, HandComputedTwoByTwo) {

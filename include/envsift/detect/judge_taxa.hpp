@@ -12,6 +12,7 @@
 #include "envsift/detect/detector.hpp"
 #include "envsift/group/populations.hpp"
 #include "envsift/group/taxon_groups.hpp"
+#include "envsift/value_table.hpp"
 
 namespace envsift {
 
@@ -20,13 +21,14 @@ namespace envsift {
 using LandscapeSource = std::function<std::vector<LandscapeValues>(const std::vector<const TaxonGroup*>&)>;
 
 struct JudgingInput {
-  const Eigen::MatrixXd& values;            // records × layers, NaN = missing
+  const ValueTable& values;                 // records × table columns, NaN = missing
+  const std::vector<Eigen::Index>& columns; // the columns the tests judge, in their order
   const std::vector<std::uint64_t>& cells;  // per record: equal keys = same raster cells
   const std::vector<std::uint32_t>& taxon_of;  // per record: index into `taxon_names`
   const std::vector<std::string>& taxon_names;
   const std::vector<bool>& eligible;        // records to judge
   const std::vector<std::string>& layer_names;
-  const Eigen::MatrixXd* lower = nullptr;  // uncertainty discs (see TaxonValues)
+  const Eigen::MatrixXd* lower = nullptr;  // uncertainty discs, judged columns only (see TaxonValues)
   const Eigen::MatrixXd* upper = nullptr;
   // When a detector uses_landscape(): taxa are judged in batches of `landscape_batch`, each
   // batch's landscapes drawn first, so only one batch's landscape is held at a time. With a

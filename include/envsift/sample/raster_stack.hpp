@@ -14,6 +14,7 @@
 
 #include "envsift/progress.hpp"
 #include "envsift/sample/block_cache.hpp"
+#include "envsift/value_table.hpp"
 
 namespace envsift {
 
@@ -43,6 +44,7 @@ struct LayerInfo {
   std::string unit;           // as the raster declares it (GDAL unit type); may be empty
   int block_width = 0, block_height = 0;
   bool float32_values = false;  // unscaled Float32: values are printed as 32-bit floats
+  bool float_cells = false;     // unscaled Byte, UInt16, Int16 or Float32: a float holds every cell
   int decimals = -1;  // integer cells with scale/offset: values are rounded to this many decimals
   bool judged = true;         // false for a circular layer: the tests see its sine and cosine instead
   std::string derived_from;   // a derived component (LAYER_sin, LAYER_cos): the layer it comes from
@@ -51,7 +53,7 @@ struct LayerInfo {
 enum class CellStatus : std::uint8_t { ok, no_point, outside, nodata };
 
 struct Samples {
-  Eigen::MatrixXd values;           // records × layers, NaN where missing
+  ValueTable values;                // records × layers, NaN where missing
   std::vector<CellStatus> status;   // records × layers, row-major
   std::vector<std::uint64_t> cell;  // per record: identifies the set of cells it fell in, across layers
   std::size_t layer_count = 0;
