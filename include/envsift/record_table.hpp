@@ -39,11 +39,12 @@ struct RecordTable {
   std::vector<std::uint64_t> cells; // equal keys = same cells (or same values)
   bool has_discs = false;
   DiscSamples discs;                // valid when has_discs
-  std::vector<double> radius_m;     // disc radius used per record (0 = none)
+  std::vector<double> radius_m;     // disc radius used per record (0 = none); empty without discs
   ReasonCodeStore codes;            // reason codes per record (the `status` column)
   std::map<std::size_t, std::vector<std::string>> notes;  // per record, rare: words for `reasons` (a capped disc)
   std::vector<std::string> warnings;                      // for stderr
   std::vector<std::pair<std::string, double>> seconds;    // time per stage
+  std::string memory;                                     // the run's memory estimate, in words (--timings)
   // The layers, still open (with their block cache) for the landscape test's sample; released
   // after sampling when no test needs it. Empty for value columns.
   std::shared_ptr<RasterStack> stack;

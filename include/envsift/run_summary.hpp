@@ -20,6 +20,7 @@ struct RunSummary {
   std::map<std::string, std::size_t> code_records;  // by a code's part before ':' (nodata), records with any
   std::vector<std::string> warnings;              // e.g. a layer no record falls on
   StageSeconds seconds;                           // time per stage (and per test, CPU time)
+  std::string memory;                             // the estimate of the run's peak memory, in words
   std::string line() const;                       // one line for stderr
   // One line: every code and its count; a code on several layers, columns or tests as one item
   // with the records it touches (`nodata on 19 layers 187,000`), so a big run's line stays short.

@@ -3,7 +3,10 @@
 #include <algorithm>
 #include <iostream>
 
+#include <sys/resource.h>
+
 #include "envsift/errors.hpp"
+#include "envsift/run_summary.hpp"
 
 namespace envsift::cli {
 
@@ -119,8 +122,13 @@ void report(const RunSummary& summary, const po::variables_map& vm, const std::s
   if (summary.warnings.size() > kShown)
     std::cerr << "envsift: warning: " << summary.warnings.size() - kShown
               << " more warnings like these (every record concerned carries its reason code in `status`)\n";
-  if (vm.count("timings") && vm["timings"].as<bool>())
+  if (vm.count("timings") && vm["timings"].as<bool>()) {
     for (const auto& [stage, seconds] : summary.seconds) std::cerr << "envsift: time: " << stage << " " << seconds << " s\n";
+    rusage usage{};
+    getrusage(RUSAGE_SELF, &usage);  // ru_maxrss: KiB on Linux
+    std::cerr << "envsift: memory: peak resident " << with_thousands(static_cast<std::size_t>(usage.ru_maxrss) / 1024)
+              << " MB; estimated " << (summary.memory.empty() ? std::string("(none)") : summary.memory) << "\n";
+  }
   std::cerr << summary.codes_line() << "\n" << summary.line() << "\nenvsift: wrote " << wrote << "\n";
 }
 

@@ -12,14 +12,13 @@
 
 namespace envsift {
 
-std::vector<JudgedTaxon> judge_taxa(const JudgingInput& in, const std::vector<std::unique_ptr<Detector>>& detectors,
-                                       bool distinct_cells, std::uint64_t seed, const TaxonFindingsSink& sink,
-                                       std::vector<double>* test_seconds, const PopulationOptions& population_options) {
+void judge_taxa(const JudgingInput& in, const std::vector<std::unique_ptr<Detector>>& detectors,
+                bool distinct_cells, std::uint64_t seed, const TaxonFindingsSink& sink, std::vector<double>* test_seconds,
+                const PopulationOptions& population_options) {
   std::mutex timing;
   if (test_seconds) test_seconds->assign(detectors.size(), 0.0);
   const auto L = static_cast<Eigen::Index>(in.columns.size());
   const auto groups = group_by_taxon(in.taxon_of, in.taxon_names, in.eligible);
-  std::vector<JudgedTaxon> result(groups.size());
   std::vector<std::size_t> order(groups.size());
   std::iota(order.begin(), order.end(), 0);
   std::vector<std::exception_ptr> errors(groups.size());
@@ -53,7 +52,7 @@ std::vector<JudgedTaxon> judge_taxa(const JudgingInput& in, const std::vector<st
     if (in.lower) lower.resize(rows, L), upper.resize(rows, L);
     std::vector<Eigen::Index> reference_rows, place_rows;  // rows the statistics use; one row per place
     std::unordered_set<std::uint64_t> seen;
-    JudgedTaxon& screened = result[index];
+    JudgedTaxon screened;  // handed to the sink, then gone: nothing per record outlives its taxon
     screened.index = index;
     screened.taxon = g.taxon;
     screened.records = g.records;
@@ -123,7 +122,6 @@ std::vector<JudgedTaxon> judge_taxa(const JudgingInput& in, const std::vector<st
   }
   for (auto& e : errors)
     if (e) std::rethrow_exception(e);  // the first taxon's, by name: the same for any thread count
-  return result;
 }
 
 }  // namespace envsift

@@ -1,6 +1,9 @@
 #include "envsift/sample/circular_layers.hpp"
 #include "envsift/reason_codes.hpp"
 #include "envsift/sample/value_columns.hpp"
+#include "envsift/settings/memory_estimate.hpp"
+#include "envsift/run_summary.hpp"
+#include <algorithm>
 #include "envsift/run/run.hpp"
 #include "envsift/sample/sample_records.hpp"
 #include "envsift/stable_hash.hpp"
@@ -33,6 +36,21 @@ RecordTable read_and_sample(const ScreenSettings& s, const ActiveTests* tests) {
                       ? sample_records(s, added, [&s](const PointTable& points, std::size_t i) { return owned_by_this_shard(s, points, i); })
                       : read_value_columns(s, added);
   add_circular_components(t, circular);
+  {
+    RunShape shape{t.size(), t.points.taxa.size() - 1, static_cast<std::size_t>(t.values.cols()), 0, t.has_discs, 0};
+    for (Eigen::Index c = 0; c < t.values.cols(); ++c) shape.float_layers += t.values.as_float(c);
+    for (const auto& l : t.layers)  // blocks are kept as floats where a float holds the cells (block_cache.hpp)
+      if (l.derived_from.empty() && !t.layers_are_columns)
+        shape.raster_bytes += static_cast<std::size_t>(l.width) * static_cast<std::size_t>(l.height) * (l.float_cells ? 4 : 8);
+    if (tests && t.stack && std::any_of(tests->detectors.begin(), tests->detectors.end(), [](const auto& d) { return d->uses_landscape(); }))
+      shape.landscape_cells = s.tests.landscape_cells;
+    const MemoryEstimate e = estimate_memory(shape, s.sampling);
+    t.memory = e.words() + "; --memory-limit " + with_thousands(s.sampling.memory_limit_mb) + " MB";
+    if (e.peak() > (s.sampling.memory_limit_mb << 20))
+      t.warnings.push_back("these " + with_thousands(t.size()) + " records and " + std::to_string(t.values.cols()) +
+                           " layers need " + e.words() + ", more than --memory-limit " +
+                           with_thousands(s.sampling.memory_limit_mb) + " MB; split the run with --shard I/N");
+  }
   if (!circular.empty()) check_unique_columns(record_header(t, tests, s.outputs.column_prefix));
   for (std::size_t l : circular)
     t.warnings.push_back("layer " + t.layers[l].spec.name + " is circular (a direction in degrees): the tests judge its "

@@ -34,6 +34,7 @@ RunSummary run_sample(const ScreenSettings& s) {
   RecordTable t = run::read_and_sample(s, nullptr);
   t.stack.reset();
   summary.seconds = t.seconds;
+  summary.memory = t.memory;
   summary.warnings = t.warnings;
   const RunContext run{s, t, nullptr, record_header(t, nullptr, s.outputs.column_prefix), settings_as_written(sample_options(), s)};
   for (RecordSink* out : pointers(outputs)) out->begin(run);
@@ -57,6 +58,7 @@ RunSummary run_screen(const ScreenSettings& s, const std::vector<RecordSink*>& e
   if (std::none_of(tests.detectors.begin(), tests.detectors.end(), [](const auto& d) { return d->uses_landscape(); }))
     t.stack.reset();  // no landscape to draw: close the layers and free their block cache
   summary.seconds = t.seconds;
+  summary.memory = t.memory;
   clock.lap(summary.seconds, "sampling, total");
   const run::Membership membership = run::group_records(t, s);  // 3. group by taxon
   clock.lap(summary.seconds, "group");

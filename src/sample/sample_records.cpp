@@ -86,13 +86,6 @@ RecordTable sample_records(const ScreenSettings& s, const std::vector<std::strin
   columns.insert(columns.end(), added_columns.begin(), added_columns.end());
   check_unique_columns(columns);
 
-  // What stays in memory per record: its parsed values and indices (~100 bytes), and a double per
-  // layer for the value (and three more per layer with discs).
-  const double need_mb = n * (100.0 + 8.0 * specs.size() * (t.has_discs ? 4 : 1)) / (1 << 20) + (plan.cache_bytes >> 20);
-  if (need_mb > s.sampling.memory_limit_mb)
-    t.warnings.push_back("these " + std::to_string(n) + " records and " + std::to_string(specs.size()) + " layers need about " +
-                         std::to_string(static_cast<long>(need_mb)) + " MB, more than --memory-limit " +
-                         std::to_string(s.sampling.memory_limit_mb) + " MB; split the run with --shard I/N");
   t.stack = std::make_shared<RasterStack>(specs, plan.cache_bytes, s.input.assume_crs);
   RasterStack& stack = *t.stack;
   std::vector<double> lon(n), lat(n);
@@ -114,8 +107,8 @@ RecordTable sample_records(const ScreenSettings& s, const std::vector<std::strin
   collect_codes(t, samples);
   warn_of_empty_layers(t, samples, lon, lat);
   mark_possible_swaps(t, stack, lon, lat);
-  t.radius_m.assign(n, 0.0);
   if (t.has_discs) {
+    t.radius_m.assign(n, 0.0);
     for (std::size_t i = 0; i < n; ++i) {
       const auto& u = t.points.records[i].uncertainty_m;
       double r = u ? *u : s.sampling.default_radius_m;

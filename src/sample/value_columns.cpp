@@ -35,7 +35,6 @@ RecordTable read_value_columns(const ScreenSettings& s, const std::vector<std::s
   t.values = ValueTable(n, std::vector<bool>(index.size(), false));  // parsed text: doubles
   t.cells.assign(n, 0);
   t.codes.resize(n);
-  t.radius_m.assign(n, 0.0);
   std::vector<std::string> fields;
   for (std::size_t i = 0; i < n; ++i) {
     t.points.fields.read(i, fields);

@@ -57,12 +57,10 @@ using TaxonFindingsSink = std::function<void(const JudgedTaxon&, std::vector<std
 // that many records in one cell neither zero the spread nor hide an outlier; every record is
 // still judged. seed: randomised tests get a seed derived from it and the taxon's name, so a
 // taxon's result depends on neither thread count nor which other taxa are in the file.
-// Returns the taxa, sorted by name (records and reference rows filled in).
 // `test_seconds` (optional) receives each test's computing time, summed over threads.
 // populations: a taxon with two separate populations (group/populations.hpp) is judged as two.
-std::vector<JudgedTaxon> judge_taxa(const JudgingInput& input, const std::vector<std::unique_ptr<Detector>>& detectors,
-                                       bool distinct_cells, std::uint64_t seed, const TaxonFindingsSink& sink,
-                                       std::vector<double>* test_seconds = nullptr,
-                                       const PopulationOptions& populations = {false});
+void judge_taxa(const JudgingInput& input, const std::vector<std::unique_ptr<Detector>>& detectors,
+                bool distinct_cells, std::uint64_t seed, const TaxonFindingsSink& sink,
+                std::vector<double>* test_seconds = nullptr, const PopulationOptions& populations = {false});
 
 }  // namespace envsift

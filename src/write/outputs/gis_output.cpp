@@ -24,7 +24,7 @@ class GisOutput : public RecordSink {
   bool wants_row() const override { return true; }
   void record(const RecordOutcome& o) override {
     const auto& r = table_->points.records[o.record];
-    out_->add(*o.row, r.longitude, r.latitude, table_->radius_m[o.record]);
+    out_->add(*o.row, r.longitude, r.latitude, table_->has_discs ? table_->radius_m[o.record] : 0.0);
   }
   void finish(const RunSummary&) override { out_->finish(); }
   void commit() override { out_->commit(); }
