@@ -7,8 +7,9 @@ namespace envsift {
 CsvReader::CsvReader(std::istream& in, char delimiter, std::string source_name, Quoting quoting)
     : in_(in), delimiter_(delimiter), quoting_(quoting), source_(std::move(source_name)) {}
 
-int CsvReader::get() { return in_.get(); }
-int CsvReader::peek() { return in_.peek(); }
+// Straight from the stream's buffer: istream::get() builds a sentry for every character.
+int CsvReader::get() { return in_.rdbuf()->sbumpc(); }
+int CsvReader::peek() { return in_.rdbuf()->sgetc(); }
 
 bool CsvReader::next(std::vector<std::string>& fields, std::size_t& line) {
   fields.clear();
@@ -23,13 +24,13 @@ bool CsvReader::next(std::vector<std::string>& fields, std::size_t& line) {
                        "save it as UTF-8 (or CSV UTF-8) and run again");
     static const unsigned char bom[3] = {0xEF, 0xBB, 0xBF};
     if (peek() == bom[0]) {
-      in_.get();
+      get();
       if (peek() == bom[1]) {
-        in_.get();
-        if (peek() == bom[2]) in_.get();
-        else in_.unget(), in_.unget();
+        get();
+        if (peek() == bom[2]) get();
+        else in_.rdbuf()->sungetc(), in_.rdbuf()->sungetc();
       } else {
-        in_.unget();
+        in_.rdbuf()->sungetc();
       }
     }
   }

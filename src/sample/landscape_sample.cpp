@@ -120,7 +120,10 @@ std::vector<LandscapeValues> LandscapeSampler::sample(const std::vector<TaxonPla
       lon.push_back(wrap_longitude(x)), lat.push_back(y);
     }
   }
-  const Samples all = stack_.sample(lon, lat, method_);
+  // each draw visits the layers in the order opposite to the sample before it (the records',
+  // then the previous batch's), so it begins on the blocks that one left in the cache
+  last_layer_first_ = !last_layer_first_;
+  const Samples all = stack_.sample(lon, lat, method_, last_layer_first_);
   std::vector<LandscapeValues> out(taxa.size());
   for (std::size_t t = 0; t < taxa.size(); ++t) {
     out[t].values = judged_values(all, static_cast<Eigen::Index>(t * options_.cells), static_cast<Eigen::Index>(options_.cells));

@@ -183,7 +183,7 @@ RasterStack::RasterStack(std::vector<LayerSpec> specs, std::size_t cache_bytes, 
 RasterStack::~RasterStack() = default;
 
 Samples RasterStack::sample(const std::vector<double>& longitude, const std::vector<double>& latitude,
-                            Interpolation method) {
+                            Interpolation method, bool last_layer_first) {
   const std::size_t n = longitude.size(), L = layers_.size();
   Samples out;
   out.layer_count = L;
@@ -201,7 +201,8 @@ Samples RasterStack::sample(const std::vector<double>& longitude, const std::vec
    const std::size_t end = std::min(n, begin + chunk_records_);
    PointPlan plan;
    const LayerInfo* plan_grid = nullptr;
-   for (std::size_t l = 0; l < L; ++l) {
+   for (std::size_t visit = 0; visit < L; ++visit) {
+    const std::size_t l = last_layer_first ? L - 1 - visit : visit;
     detail::LayerAccess layer(layers_[l], l, cache_, impl_->handles);
     const LayerInfo& info = layer.info();
 
@@ -213,7 +214,7 @@ Samples RasterStack::sample(const std::vector<double>& longitude, const std::vec
     }
     for (std::size_t i = begin; i < end; ++i) {
       if (plan.outside[i - begin]) out.status[i * L + l] = CellStatus::outside;
-      out.cell[i] = mix(out.cell[i], plan.cell[i - begin]);  // every layer's cell, in layer order
+      if (!last_layer_first) out.cell[i] = mix(out.cell[i], plan.cell[i - begin]);  // every layer's cell, in layer order
     }
     const std::vector<Location>& located = plan.located;
     const std::vector<std::size_t>& group_start = plan.group_start;

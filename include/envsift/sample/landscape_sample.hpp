@@ -64,6 +64,7 @@ class LandscapeSampler {
   LandscapeOptions options_;
   double min_radius_m_ = 0;
   std::shared_ptr<const LandscapeValues> extent_;  // the shared draw of `extent`
+  bool last_layer_first_ = false;                  // the order the previous sample visited the layers in
 };
 
 }  // namespace envsift

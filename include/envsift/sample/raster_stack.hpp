@@ -85,8 +85,11 @@ class RasterStack {
   // OpenMP; the result does not depend on the thread count.
   // Bilinear uses the four cell centres around the point; where one of them is outside the
   // raster or nodata, the value falls back to the containing cell (nearest).
+  // `last_layer_first`: visit the layers from the last, so that a sample right after another one
+  // starts on the blocks still in the cache (the values do not change; `cell` is left 0, as a
+  // cell key is built in layer order).
   Samples sample(const std::vector<double>& longitude, const std::vector<double>& latitude,
-                 Interpolation method);
+                 Interpolation method, bool last_layer_first = false);
 
   // `radius_m[i]` ≤ 0 or NaN: no disc for record i. Parallel, thread-count independent.
   DiscSamples sample_discs(const std::vector<double>& longitude, const std::vector<double>& latitude,
