@@ -64,8 +64,10 @@ RunSummary run_screen(const ScreenSettings& s, const std::vector<RecordSink*>& e
   clock.lap(summary.seconds, "group");
   const RunContext run{s, t, &tests, record_header(t, &tests, s.outputs.column_prefix), settings_as_written(all_screen_options(), s)};
   for (RecordSink* out : outputs) out->begin(run);
+  const double cpu_before = process_cpu_seconds();
   const run::Judgement judgement = run::judge_records(t, tests, membership, s, outputs);  // 4-5. tests, scores
   clock.lap(summary.seconds, "screen");
+  summary.seconds.emplace_back("screen (CPU, all threads)", process_cpu_seconds() - cpu_before);
   summary.seconds.insert(summary.seconds.end(), judgement.test_seconds.begin(), judgement.test_seconds.end());
 
   summary.warnings = t.warnings;
