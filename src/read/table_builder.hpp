@@ -114,6 +114,7 @@ class TableBuilder {
   }
   std::uint32_t intern_taxon(std::string name) {
     if (name.empty()) return 0;
+    if (const auto known = taxon_index_.find(name); known != taxon_index_.end()) return known->second;  // no node built
     auto [it, added] = taxon_index_.emplace(std::move(name), static_cast<std::uint32_t>(t_.taxa.size()));
     if (added) t_.taxa.push_back(it->first);
     return it->second;
@@ -122,6 +123,7 @@ class TableBuilder {
     if (codes.empty()) return 0;
     std::string key;
     for (const auto& c : codes) key += c + '\n';
+    if (const auto known = problem_index_.find(key); known != problem_index_.end()) return known->second;
     auto [it, added] = problem_index_.emplace(key, static_cast<std::uint32_t>(t_.problem_sets.size()));
     if (added) t_.problem_sets.push_back(codes);
     return it->second;

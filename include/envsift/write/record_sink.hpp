@@ -45,7 +45,7 @@ class RecordSink {
   virtual void begin(const RunContext& run) = 0;
   // Thread-safe; once per judged taxon, `verdicts[r]` for its r-th record.
   virtual void taxon(const JudgedTaxon&, const std::vector<Verdict>&) {}
-  virtual void record(const RecordOutcome& outcome) = 0;  // in output order, one thread
+  virtual void record(const RecordOutcome& outcome) = 0;  // in output order, one thread at a time
   // Whether record() needs `outcome.row` or `outcome.csv_line` (formatted in parallel, once for
   // every output).
   virtual bool wants_row() const { return false; }
