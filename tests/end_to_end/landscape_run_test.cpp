@@ -1,7 +1,8 @@
 // envsift's own contract, checked against envsift itself: the landscape test as run on the demo.
 // Its landscape is drawn per taxon with a seed from the taxon's name and sampled through the
 // shared block cache, so neither the thread count nor a small --memory-limit with a 1 MB block
-// cache (sampling in chunks, blocks evicted and read again) may change a byte of the output;
+// cache (sampling in chunks, blocks evicted and read again, landscapes in several batches) may
+// change a byte of the output;
 // the extent area works too; and a taxon's landscape does not depend on the other taxa in the
 // file (screening one taxon alone gives its records the same landscape statistics).
 #include <gtest/gtest.h>
@@ -22,6 +23,14 @@ TEST(LandscapeRun, ThreadsMemoryLimitAndOtherTaxaChangeNothing) {
   auto one = run(base + " --threads 1 --memory-limit 16 --block-cache-mb 1 --out " + dir + "/one.csv");
   ASSERT_EQ(one.exit_code, 0) << one.output;
   EXPECT_EQ(read_file(dir + "/two.csv"), read_file(dir + "/one.csv"));
+  // Landscapes are drawn in batches sized by the memory limit, taxa ordered by where they live:
+  // 20,000 cells a taxon (1.8 MB while drawn) and a 16 MB limit (2 MB for landscapes) leave room
+  // for one taxon a batch, so the demo's four taxa are judged in four batches, in place order.
+  auto whole = run(base + " --landscape-cells 20000 --out " + dir + "/whole.csv");
+  ASSERT_EQ(whole.exit_code, 0) << whole.output;
+  auto batched = run(base + " --landscape-cells 20000 --memory-limit 16 --out " + dir + "/batched.csv");
+  ASSERT_EQ(batched.exit_code, 0) << batched.output;
+  EXPECT_EQ(read_file(dir + "/whole.csv"), read_file(dir + "/batched.csv"));
 
   const Table all = read_csv(dir + "/two.csv");
   std::size_t flagged = 0, tested = 0;
