@@ -46,6 +46,11 @@ std::string RunSummary::line() const {
                   (screened ? " scored, " + with_thousands(flagged) + " flagged, " : " with values, ") +
                   with_thousands(read - scored) + (screened ? " not scored" : " without");
   if (!not_scored.empty()) s += " (" + counts(not_scored) + ")";
+  if (!decided.empty()) {
+    std::size_t all = 0;
+    for (const auto& [d, count] : decided) all += count;
+    s += "; " + with_thousands(all) + " decided in earlier rounds (" + counts(decided) + ")";
+  }
   return s;
 }
 

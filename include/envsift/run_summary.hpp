@@ -14,7 +14,8 @@ struct RunSummary {
   bool screened = true;  // false for `sample`: nothing is flagged there
   std::size_t read = 0;
   std::size_t scored = 0;
-  std::size_t flagged = 0;
+  std::size_t flagged = 0;  // open suspects: flagged and not decided error or valid
+  std::map<std::string, std::size_t> decided;     // --decisions: records per decision (error, valid, unsure)
   std::map<std::string, std::size_t> not_scored;  // by the code that prevented scoring (reason::why_not_scored)
   std::map<std::string, std::size_t> codes;       // every reason code, over all records
   std::map<std::string, std::size_t> code_records;  // by a code's part before ':' (nodata), records with any

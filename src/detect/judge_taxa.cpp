@@ -60,9 +60,10 @@ void judge_taxa(const JudgingInput& in, const std::vector<std::unique_ptr<Detect
       const auto i = static_cast<Eigen::Index>(g.records[static_cast<std::size_t>(r)]);
       for (Eigen::Index c = 0; c < L; ++c) records(r, c) = in.values(i, in.columns[static_cast<std::size_t>(c)]);
       if (in.lower) lower.row(r) = in.lower->row(i), upper.row(r) = in.upper->row(i);
-      const bool new_place = seen.insert(in.cells[static_cast<std::size_t>(i)]).second;
+      const bool kept_out = in.left_out && (*in.left_out)[static_cast<std::size_t>(i)];
+      const bool new_place = !kept_out && seen.insert(in.cells[static_cast<std::size_t>(i)]).second;
       if (new_place) place_rows.push_back(r);
-      if (!distinct_cells || new_place) {
+      if (!kept_out && (!distinct_cells || new_place)) {
         reference_rows.push_back(r);
         screened.reference.push_back(static_cast<std::size_t>(i));
       }

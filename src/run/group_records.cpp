@@ -1,3 +1,6 @@
+#include <algorithm>
+
+#include "envsift/errors.hpp"
 #include "envsift/reason_codes.hpp"
 #include "steps.hpp"
 
@@ -18,6 +21,21 @@ Membership group_records(RecordTable& t, const ScreenSettings& s) {
     m.taxon_of[i] = s.input.single_taxon ? 1u : t.points.records[i].taxon;
     if (m.taxon_of[i] == 0 && t.points.records[i].has_coordinates() && m.mine[i]) t.codes.add(i, reason::taxon_missing);
     m.eligible[i] = m.mine[i] && m.taxon_of[i] != 0 && t.has_any_value(i);
+  }
+  if (!s.review.decisions.empty()) {
+    const auto& columns = t.points.columns;
+    const auto id = std::find(columns.begin(), columns.end(), s.input.reader.columns.id);
+    if (id == columns.end())
+      throw UsageError("--decisions matches records by their ID, but the points have no '" + s.input.reader.columns.id +
+                       "' column; name the ID column with --id-column");
+    m.decision_file = read_decision_file(s.review.decisions, s.input.reader.columns.id);
+    m.decisions = apply_decisions(m.decision_file, t.points, static_cast<std::size_t>(id - columns.begin()));
+    t.warnings.insert(t.warnings.end(), m.decisions.warnings.begin(), m.decisions.warnings.end());
+    m.left_out.resize(n);
+    for (std::size_t i = 0; i < n; ++i) {
+      if (!m.mine[i]) m.decisions.of[i] = Decision::none;  // another shard's record: that shard applies it
+      m.left_out[i] = m.decisions.of[i] == Decision::error;
+    }
   }
   return m;
 }

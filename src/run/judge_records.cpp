@@ -35,6 +35,8 @@ Judgement judge_records(RecordTable& t, const ActiveTests& tests, const Membersh
   Judgement j;
   j.verdicts = std::make_unique<VerdictStore>(n, sampling_plan(s.sampling).verdict_bytes);
   j.scores.resize(n);
+  if (!m.decisions.of.empty())
+    for (Decision d : m.decisions.of) j.tiers.push_back(review_tier(d));
 
   // A record's verdict: the taxon tests' findings (if any), then every record check's.
   auto judge_record = [&](std::size_t i, std::vector<const Finding*> findings) {
@@ -48,6 +50,8 @@ Judgement judge_records(RecordTable& t, const ActiveTests& tests, const Membersh
       v.reasons.insert(v.reasons.end(), note->second.begin(), note->second.end());
     v.codes.erase(std::remove(v.codes.begin(), v.codes.end(), std::string()), v.codes.end());
     for (std::size_t k = 0; k < v.tests.size(); ++k) v.tests[k].extras.resize(extras[k].size(), std::nan(""));
+    if (!m.decisions.of.empty() && m.decisions.of[i] != Decision::none)
+      apply_decision(v, m.decisions.of[i], m.decisions.row.at(i)->note);
     if (v.score) j.scores[i] = score_as_written(*v.score);
     j.verdicts->put(i, v);
     return v;
@@ -79,6 +83,7 @@ Judgement judge_records(RecordTable& t, const ActiveTests& tests, const Membersh
   const Eigen::MatrixXd* judged_lower = !t.has_discs ? nullptr : every_layer ? &t.discs.min : &lower;
   const Eigen::MatrixXd* judged_upper = !t.has_discs ? nullptr : every_layer ? &t.discs.max : &upper;
   JudgingInput input{t.values, judged, t.cells, m.taxon_of, m.taxon_names, m.eligible, layer_names, judged_lower, judged_upper};
+  if (!m.left_out.empty()) input.left_out = &m.left_out;
   std::unique_ptr<LandscapeSampler> sampler;
   double landscape_seconds = 0;
   if (t.stack) {  // layers, not value columns: the landscape test can be given its landscape
@@ -91,13 +96,15 @@ Judgement judge_records(RecordTable& t, const ActiveTests& tests, const Membersh
     std::vector<std::size_t> judged_columns(judged.begin(), judged.end());
     const SamplingPlan plan = sampling_plan(s.sampling);
     sampler = std::make_unique<LandscapeSampler>(*t.stack, t.layers, judged_columns, plan.method, o);
-    auto places_of = [&t](const TaxonGroup& taxon) {
+    auto places_of = [&t, &m](const TaxonGroup& taxon) {
       TaxonPlaces places;
       places.taxon = taxon.taxon;
       std::unordered_set<std::uint64_t> seen;
       for (std::size_t i : taxon.records) {
         const auto& r = t.points.records[i];
-        if (!std::isfinite(r.longitude) || !std::isfinite(r.latitude) || !seen.insert(t.cells[i]).second) continue;
+        if (!std::isfinite(r.longitude) || !std::isfinite(r.latitude) || (!m.left_out.empty() && m.left_out[i]) ||
+            !seen.insert(t.cells[i]).second)
+          continue;
         places.longitude.push_back(r.longitude), places.latitude.push_back(r.latitude);
       }
       return places;

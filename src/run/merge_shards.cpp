@@ -80,12 +80,21 @@ RunSummary merge_shards(const std::vector<std::string>& paths, const std::string
 
   open_all();
   const std::size_t status = verdict_columns(), rank = status + 1, score = status + 2, flags = status + 3;
+  // a run with --decisions: its decision column follows reasons, and decided records rank after the open ones
+  const std::string prefix = header[status].substr(0, header[status].size() - 6);
+  const bool decided = status + 5 < header.size() && header[status + 5] == prefix + "decision";
+  auto decision_of = [&](const std::string& word) {
+    return word == "error" ? Decision::error : word == "valid" ? Decision::valid : word == "unsure" ? Decision::unsure : Decision::none;
+  };
   // Pass 1: every row's score, to rank them as one run would.
   std::vector<std::optional<double>> scores;
+  std::vector<std::uint8_t> tiers;
   std::vector<std::string> row;
-  while (next_rows(row, scores.size() + 1, status))
+  while (next_rows(row, scores.size() + 1, status)) {
     scores.push_back(row[score].empty() ? std::nullopt : std::optional<double>(std::stod(row[score])));
-  const auto ranks = rank_by_score(scores);
+    if (decided) tiers.push_back(review_tier(decision_of(row[status + 5])));
+  }
+  const auto ranks = rank_by_score(scores, tiers);
   // Pass 2: the rows again, with their rank.
   open_all();
   RunSummary summary;
@@ -101,7 +110,9 @@ RunSummary merge_shards(const std::vector<std::string>& paths, const std::string
     summary.count_codes(codes);
     if (scores[i]) ++summary.scored;
     else ++summary.not_scored[reason::why_not_scored(codes)];
-    if (!row[flags].empty()) ++summary.flagged;
+    const Decision d = decided ? decision_of(row[status + 5]) : Decision::none;
+    if (d != Decision::none) ++summary.decided[decision_name(d)];
+    if (!row[flags].empty() && d != Decision::error) ++summary.flagged;
     out.row(row);
   }
   out.finish();

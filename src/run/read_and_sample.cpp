@@ -27,7 +27,7 @@ bool owned_by_this_shard(const ScreenSettings& s, const PointTable& points, std:
 }
 
 RecordTable read_and_sample(const ScreenSettings& s, const ActiveTests* tests) {
-  const auto added = added_columns(tests, s.outputs.column_prefix);
+  const auto added = added_columns(tests, s.outputs.column_prefix, !s.review.decisions.empty());
   std::vector<std::string> layer_names = s.input.value_columns;
   if (layer_names.empty())
     for (const auto& spec : expand_layer_arguments(s.input.layers)) layer_names.push_back(spec.name);
@@ -51,7 +51,7 @@ RecordTable read_and_sample(const ScreenSettings& s, const ActiveTests* tests) {
                            " layers need " + e.words() + ", more than --memory-limit " +
                            with_thousands(s.sampling.memory_limit_mb) + " MB; split the run with --shard I/N");
   }
-  if (!circular.empty()) check_unique_columns(record_header(t, tests, s.outputs.column_prefix));
+  if (!circular.empty()) check_unique_columns(record_header(t, tests, s.outputs.column_prefix, !s.review.decisions.empty()));
   for (std::size_t l : circular)
     t.warnings.push_back("layer " + t.layers[l].spec.name + " is circular (a direction in degrees): the tests judge its "
                          "sine and cosine (columns " + t.layers[l].spec.name + "_sin, " + t.layers[l].spec.name + "_cos)");

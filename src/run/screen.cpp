@@ -62,7 +62,7 @@ RunSummary run_screen(const ScreenSettings& s, const std::vector<RecordSink*>& e
   clock.lap(summary.seconds, "sampling, total");
   const run::Membership membership = run::group_records(t, s);  // 3. group by taxon
   clock.lap(summary.seconds, "group");
-  const RunContext run{s, t, &tests, record_header(t, &tests, s.outputs.column_prefix), settings_as_written(all_screen_options(), s)};
+  const RunContext run{s, t, &tests, record_header(t, &tests, s.outputs.column_prefix, !s.review.decisions.empty()), settings_as_written(all_screen_options(), s)};
   for (RecordSink* out : outputs) out->begin(run);
   const double cpu_before = process_cpu_seconds();
   const run::Judgement judgement = run::judge_records(t, tests, membership, s, outputs);  // 4-5. tests, scores

@@ -1,5 +1,6 @@
 // Private to the run layer: the steps run_screen calls in order, each in its own file.
 #pragma once
+#include "envsift/review/decisions.hpp"
 #include <cstdint>
 #include <memory>
 #include <optional>
@@ -27,6 +28,9 @@ struct Membership {
   std::vector<std::uint32_t> taxon_of;   // per record
   std::vector<bool> mine;                // this shard's
   std::vector<bool> eligible;            // mine, with a taxon and a value to judge
+  DecisionFile decision_file;            // --decisions as read (its rows outlive `decisions`' pointers)
+  RecordDecisions decisions;             // --decisions: per record (empty when none given)
+  std::vector<bool> left_out;            // judged, but out of the reference: decided `error`
 };
 Membership group_records(RecordTable& table, const ScreenSettings& settings);
 
@@ -35,6 +39,7 @@ Membership group_records(RecordTable& table, const ScreenSettings& settings);
 struct Judgement {
   std::unique_ptr<VerdictStore> verdicts;
   std::vector<std::optional<double>> scores;  // as written, for the ranking
+  std::vector<std::uint8_t> tiers;            // per record, review_tier of its decision (empty: none given)
   std::vector<std::string> warnings;          // a test's flags withheld from a taxon
   StageSeconds test_seconds;                  // each detector's CPU time
 };

@@ -34,12 +34,13 @@ class BatchWriter {
     rows_.resize(n);
     std::iota(rows_.begin(), rows_.end(), 0);
     if (judgement) {
-      ranks_ = rank_by_score(judgement->scores);
+      ranks_ = rank_by_score(judgement->scores, judgement->tiers);
       if (run.settings.outputs.order == "rank")
         std::stable_sort(rows_.begin(), rows_.end(), [&](std::size_t a, std::size_t b) {
           return (ranks_[a] ? ranks_[a] : n + 1) < (ranks_[b] ? ranks_[b] : n + 1);
         });
     }
+    with_decisions_ = judgement && !run.settings.review.decisions.empty();
     rows_wanted_ = std::any_of(outputs.begin(), outputs.end(), [](RecordSink* o) { return o->wants_row(); });
     lines_wanted_ = std::any_of(outputs.begin(), outputs.end(), [](RecordSink* o) { return o->wants_csv_line(); });
   }
@@ -55,7 +56,7 @@ class BatchWriter {
   RecordOutcome outcome(std::vector<PendingRecord>& batch, std::size_t start, std::size_t k) const {
     const std::size_t i = rows_[start + k];
     return RecordOutcome{i, &batch[k].fields, &batch[k].codes, ranks_[i], judgement_ ? &batch[k].verdict : nullptr,
-                         &batch[k].row, &batch[k].line};
+                         &batch[k].row, &batch[k].line, with_decisions_};
   }
   template <class Call>
   void timed(std::size_t k, Call&& call) {
@@ -71,7 +72,7 @@ class BatchWriter {
   std::vector<double> seconds_;
   Progress* progress_;
   std::vector<std::size_t> ranks_, rows_;
-  bool rows_wanted_ = false, lines_wanted_ = false;
+  bool rows_wanted_ = false, lines_wanted_ = false, with_decisions_ = false;
 };
 
 // The batch's fields (in order, this thread), then its verdicts, codes and rows (in parallel).
@@ -107,7 +108,8 @@ void BatchWriter::feed(std::vector<PendingRecord>& batch, std::size_t start, std
   for (std::size_t k = 0; k < size; ++k) {
     const PendingRecord& p = batch[k];
     ++summary_.read;
-    summary_.flagged += judgement_ && p.scored && !p.verdict.flags.empty();
+    summary_.flagged += judgement_ && p.scored && !p.verdict.flags.empty() && p.verdict.open();
+    if (judgement_ && p.verdict.decision != Decision::none) ++summary_.decided[decision_name(p.verdict.decision)];
     if (p.scored) ++summary_.scored;
     else ++summary_.not_scored[reason::why_not_scored(p.codes)];
     summary_.count_codes(p.codes);

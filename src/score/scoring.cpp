@@ -43,14 +43,36 @@ Verdict combine(const std::vector<const Finding*>& findings, const std::vector<s
   return v;
 }
 
-std::vector<std::size_t> rank_by_score(const std::vector<std::optional<double>>& scores) {
+std::vector<std::size_t> rank_by_score(const std::vector<std::optional<double>>& scores,
+                                       const std::vector<std::uint8_t>& tiers) {
   std::vector<std::size_t> order;
   for (std::size_t i = 0; i < scores.size(); ++i)
     if (scores[i]) order.push_back(i);
-  std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) { return *scores[a] > *scores[b]; });
+  auto tier = [&](std::size_t i) { return tiers.empty() ? 0 : tiers[i]; };
+  std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) {
+    return tier(a) != tier(b) ? tier(a) < tier(b) : *scores[a] > *scores[b];
+  });
   std::vector<std::size_t> rank(scores.size(), 0);
   for (std::size_t k = 0; k < order.size(); ++k) rank[order[k]] = k + 1;
   return rank;
+}
+
+std::uint8_t review_tier(Decision decision) {
+  return decision == Decision::valid ? 1 : decision == Decision::error ? 2 : 0;
+}
+
+void apply_decision(Verdict& v, Decision decision, const std::string& note) {
+  v.decision = decision;
+  v.decision_note = note;
+  if (decision == Decision::valid && !v.flags.empty()) {
+    std::string flags, reasons;
+    for (const auto& f : v.flags) flags += (flags.empty() ? "" : ";") + f;
+    for (const auto& r : v.reasons) reasons += (reasons.empty() ? "" : "; ") + r;
+    v.set_aside = flags + (reasons.empty() ? "" : ": " + reasons);
+    v.flags.clear();
+    v.reasons.clear();
+  }
+  if (decision == Decision::error) v.codes.push_back(reason::reviewed_error);
 }
 
 }  // namespace envsift

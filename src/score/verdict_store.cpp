@@ -33,13 +33,16 @@ void take_list(const std::vector<std::string>& fields, std::size_t& at, std::vec
 }  // namespace
 
 void VerdictStore::put(std::size_t record, const Verdict& v) {
-  // fields: score (empty or 8 bytes), flags, reasons, codes (each a count, then the items), and
-  // one field of bits per test
+  // fields: score (empty or 8 bytes), flags, reasons, codes (each a count, then the items), the
+  // decision (one byte), its note and what it set aside, and one field of bits per test
   std::vector<std::string> fields{std::string()};
   if (v.score) put_number(fields[0], *v.score);
   put_list(fields, v.flags);
   put_list(fields, v.reasons);
   put_list(fields, v.codes);
+  fields.emplace_back(1, static_cast<char>(v.decision));
+  fields.push_back(v.decision_note);
+  fields.push_back(v.set_aside);
   for (const TestResult& t : v.tests) {
     std::string bits(1, t.tested ? '1' : '0');
     put_number(bits, t.statistic);
@@ -62,6 +65,9 @@ void VerdictStore::get(std::size_t record, Verdict& v, Scratch& scratch) const {
   take_list(fields, field, v.flags);
   take_list(fields, field, v.reasons);
   take_list(fields, field, v.codes);
+  v.decision = static_cast<Decision>(fields[field++][0]);
+  v.decision_note = fields[field++];
+  v.set_aside = fields[field++];
   v.tests.resize(fields.size() - field);  // reusing the caller's vectors: no allocation per record
   for (TestResult& t : v.tests) {
     const std::string& bits = fields[field++];

@@ -184,6 +184,12 @@ const std::vector<OptionSpec>& screen_options() {
                             [](ScreenSettings& s) -> std::string& { return s.outputs.column_prefix; }));
     v.push_back(choice_option("order", "row order of the output: input order, or by rank (unscored records last)",
                               [](ScreenSettings& s) -> std::string& { return s.outputs.order; }, {"input", "rank"}));
+    v.push_back(text_option("decisions", "FILE.csv",
+                            "a reviewer's decisions from earlier rounds, one row per record: its ID (the points' ID "
+                            "column), decision (error: confirmed wrong, left out of its taxon's statistics and "
+                            "ranked last; valid: confirmed right, never flagged again, ranked after the open suspects; "
+                            "unsure), and optionally note, reviewer, date",
+                            [](ScreenSettings& s) -> std::string& { return s.review.decisions; }));
     return v;
   }();
   return options;

@@ -10,6 +10,7 @@ std::unique_ptr<RecordSink> make_gis_output(const std::string& path, const Scree
 std::unique_ptr<RecordSink> make_summary_output(const std::string& path, const ScreenSettings&);
 std::unique_ptr<RecordSink> make_report_output(const std::string& path, const ScreenSettings&);
 std::unique_ptr<RecordSink> make_manifest_output(const std::string& path, const ScreenSettings&);
+std::unique_ptr<RecordSink> make_decisions_template_output(const std::string& path, const ScreenSettings&);
 
 namespace {
 
@@ -47,6 +48,13 @@ const std::vector<OutputEntry>& output_registry() {
                    "plots of its values with the cutoffs",
                    path_of(&OutputSettings::report)),
        false, make_report_output},
+      {"decisions-template",
+       text_option("decisions-template", "FILE.csv",
+                   "also write the next round's decisions file: the top --decisions-template-top open suspects with "
+                   "their rank, score, flags and reasons and an empty decision column (error, valid or unsure) to fill "
+                   "in, then the records decided in earlier rounds; give it back as --decisions",
+                   [](ScreenSettings& s) -> std::string& { return s.review.template_path; }),
+       false, make_decisions_template_output},
       {"manifest",
        text_option("manifest", "FILE.json",
                    "also write a run manifest: envsift's version, the command line, every option value, each input's "
@@ -61,6 +69,8 @@ const std::vector<OptionSpec>& output_options() {
   static const std::vector<OptionSpec> options = [] {
     std::vector<OptionSpec> v;
     for (const auto& e : output_registry()) v.push_back(e.option);
+    v.push_back(count_option("decisions-template-top", "N", "open suspects listed in --decisions-template (default 200)",
+                             [](ScreenSettings& s) -> std::size_t& { return s.review.template_top; }, at_least(1)));
     v.push_back(count_option("report-taxa", "N",
                              "draw sections for at most N taxa in the report: all when there are no more, else the N "
                              "whose worst suspect scores highest (the index lists every taxon); keeps the report quick "

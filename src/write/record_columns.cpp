@@ -46,6 +46,11 @@ void each_cell(const RecordTable& t, const RecordOutcome& o, Cell&& cell) {
   else cell(std::string_view());
   join(v.flags, ";");
   join(v.reasons, "; ");
+  if (o.with_decisions) {
+    cell(std::string_view(decision_name(v.decision)));
+    cell(std::string_view(v.decision_note));
+    cell(std::string_view(v.set_aside));
+  }
   for (const TestResult& test : v.tests) {
     put(test.tested ? put_statistic(number, test.statistic) : number);
     put(test.tested ? put_statistic(number, test.threshold) : number);
@@ -55,10 +60,12 @@ void each_cell(const RecordTable& t, const RecordOutcome& o, Cell&& cell) {
 
 }  // namespace
 
-std::vector<std::string> added_columns(const ActiveTests* tests, const std::string& prefix) {
+std::vector<std::string> added_columns(const ActiveTests* tests, const std::string& prefix, bool decisions) {
   std::vector<std::string> added{prefix + "status"};
   if (!tests) return added;
   for (const char* c : {"rank", "score", "flags", "reasons"}) added.push_back(prefix + c);
+  if (decisions)
+    for (const char* c : {"decision", "decision_note", "set_aside"}) added.push_back(prefix + c);
   const auto extras = tests->extra_columns();
   const auto names = tests->names();
   for (std::size_t t = 0; t < names.size(); ++t) {
@@ -69,7 +76,8 @@ std::vector<std::string> added_columns(const ActiveTests* tests, const std::stri
   return added;
 }
 
-std::vector<std::string> record_header(const RecordTable& t, const ActiveTests* tests, const std::string& prefix) {
+std::vector<std::string> record_header(const RecordTable& t, const ActiveTests* tests, const std::string& prefix,
+                                       bool decisions) {
   std::vector<std::string> h = t.points.columns;
   for (const auto& l : t.layers) {
     if (t.layers_are_columns && l.derived_from.empty()) continue;  // already an input column
@@ -77,7 +85,7 @@ std::vector<std::string> record_header(const RecordTable& t, const ActiveTests* 
     if (t.has_discs && l.derived_from.empty())
       for (const char* s : {"_min", "_mean", "_max"}) h.push_back(l.spec.name + s);
   }
-  const auto added = added_columns(tests, prefix);
+  const auto added = added_columns(tests, prefix, decisions);
   h.insert(h.end(), added.begin(), added.end());
   return h;
 }

@@ -77,6 +77,13 @@ std::string manifest_json(const RunManifest& m) {
     }
   }
   j["layers"] = layers;
+  if (!m.decisions.empty()) {  // a reviewer's decisions from earlier rounds: which file, and what it did
+    nlohmann::ordered_json d = file_entry(m.decisions);
+    nlohmann::ordered_json counts = nlohmann::ordered_json::object();
+    for (const auto& [decision, count] : m.decided) counts[decision] = count;
+    d["records_decided"] = counts;
+    j["decisions"] = d;
+  }
   nlohmann::ordered_json seconds = nlohmann::ordered_json::object();
   for (const auto& [stage, s] : m.seconds) seconds[stage] = s;
   j["seconds"] = seconds;
@@ -93,6 +100,7 @@ RunManifest make_manifest(const RunContext& run, const RunSummary& summary) {
   m.seed = run.screened() ? s.tests.seed : 0;
   m.threads = omp_get_max_threads();
   m.seconds = summary.seconds;
+  if (run.screened()) m.decisions = s.review.decisions, m.decided = summary.decided;
   return m;
 }
 

@@ -30,6 +30,9 @@ struct JudgingInput {
   const std::vector<std::string>& layer_names;
   const Eigen::MatrixXd* lower = nullptr;  // uncertainty discs, judged columns only (see TaxonValues)
   const Eigen::MatrixXd* upper = nullptr;
+  // Records judged like the others but kept out of their taxon's reference, population split and
+  // landscape places (a reviewer confirmed them wrong); null: none.
+  const std::vector<bool>* left_out = nullptr;
   // When a detector uses_landscape(): taxa are judged in batches of `landscape_batch`, each
   // batch's landscapes drawn first, so only one batch's landscape is held at a time. With a
   // `landscape_key` (e.g. where the taxon lives on a space-filling curve), batches are runs of

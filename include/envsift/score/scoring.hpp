@@ -14,6 +14,7 @@
 #include <vector>
 
 #include "envsift/detect/detector.hpp"
+#include "envsift/review/decision.hpp"
 
 namespace envsift {
 
@@ -31,11 +32,20 @@ struct Verdict {
   std::vector<std::string> reasons; // plain words, most severe test first
   std::vector<std::string> codes;   // reason codes of tests that could not judge it, or withheld their flags
   std::vector<TestResult> tests;    // per test, in the run's order
+  // A reviewer's decision from an earlier round (--decisions), its note, and for a `valid` record
+  // the flags and reasons it would have had ("robust_z: ..."), set aside.
+  Decision decision = Decision::none;
+  std::string decision_note, set_aside;
   // Tests whose flag on this record the population guard withheld (codes looks_multimodal:TEST).
   std::vector<std::string> withheld() const;
-  // Flagged, or a flag withheld: a record a reviewer should see.
-  bool for_review() const { return !flags.empty() || !withheld().empty(); }
+  // Not decided as error or valid, and flagged or a flag withheld: a record a reviewer should see.
+  bool open() const { return decision == Decision::none || decision == Decision::unsure; }
+  bool for_review() const { return open() && (!flags.empty() || !withheld().empty()); }
 };
+
+// A decision applied to a verdict: `valid` sets its flags and reasons aside (never flagged
+// again); `error` adds the code reviewed_error. The test results stay as they are.
+void apply_decision(Verdict& verdict, Decision decision, const std::string& note);
 
 // `findings[t]` is test t's finding for this record; `names[t]` its name.
 // How the severities of the tests that judged a record make its score: `max` (the worst test:
@@ -46,7 +56,11 @@ enum class CombineRule { max, mean };
 Verdict combine(const std::vector<const Finding*>& findings, const std::vector<std::string>& names,
                 CombineRule rule = CombineRule::max);
 
-// Rank 1 = highest score. Records without a score get rank 0 (written as empty).
-std::vector<std::size_t> rank_by_score(const std::vector<std::optional<double>>& scores);
+// Rank 1 = highest score. Records without a score get rank 0 (written as empty). With `tiers`
+// (per record; empty: all 0), a lower tier ranks first whatever the scores: open records, then
+// those decided valid, then those decided error (review_tier).
+std::vector<std::size_t> rank_by_score(const std::vector<std::optional<double>>& scores,
+                                       const std::vector<std::uint8_t>& tiers = {});
+std::uint8_t review_tier(Decision decision);
 
 }  // namespace envsift

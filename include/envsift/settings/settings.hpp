@@ -77,12 +77,20 @@ struct OutputSettings {
   std::size_t shard_index = 0, shard_count = 1;
 };
 
+// Screening in rounds: a reviewer's decisions from earlier rounds (review/decisions.hpp).
+struct ReviewSettings {
+  std::string decisions;  // the decisions file; empty: none
+  std::string template_path;      // the next round's decisions file to write; empty: none
+  std::size_t template_top = 200;  // open suspects listed in it
+};
+
 struct ScreenSettings {
   InputSettings input;
   SamplingSettings sampling;
   TestSettings tests;
   ElevationSettings elevation;
   OutputSettings outputs;
+  ReviewSettings review;
   std::string command_line;     // how the run was invoked, for the manifest
   Progress* progress = nullptr;  // optional
 };

@@ -36,6 +36,7 @@ struct RecordOutcome {
   const std::vector<std::string>* row = nullptr;    // the record table's row as written, for
                                                     // outputs that ask for it (wants_row)
   const std::string* csv_line = nullptr;            // the same row as a CSV line (wants_csv_line)
+  bool with_decisions = false;                      // the run has --decisions: write their columns
 };
 
 class RecordSink {

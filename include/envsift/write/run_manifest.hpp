@@ -3,6 +3,7 @@
 // path, size and SHA-256, each layer's CRS, size and nodata, the seed, the threads and the time
 // each stage took.
 #pragma once
+#include <map>
 #include <string>
 #include <utility>
 #include <vector>
@@ -22,6 +23,8 @@ struct RunManifest {
   unsigned long long seed = 0;
   int threads = 1;
   std::vector<std::pair<std::string, double>> seconds;       // time per stage
+  std::string decisions;                                     // --decisions file, "" for none
+  std::map<std::string, std::size_t> decided;                // records per decision applied
 };
 
 // The manifest of a run: its settings as the declared options write them, its inputs, layers
