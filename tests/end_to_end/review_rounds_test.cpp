@@ -8,6 +8,8 @@
 // and sample covariance of the remaining reference (Eigen, computed here).
 #include <gtest/gtest.h>
 
+#include <algorithm>
+
 #include <Eigen/Dense>
 #include <random>
 #include <sstream>
@@ -164,19 +166,21 @@ TEST(ReviewRounds, TheTemplateRoundTrips) {
   ASSERT_EQ(run(screen(p.points, p.dir + "/r1.csv", " --decisions-template " + p.dir + "/t1.csv --decisions-template-top 3")).exit_code, 0);
   Table t1 = read_csv(p.dir + "/t1.csv");
   ASSERT_EQ(t1.rows.size(), 0u);  // round 1: masked, no open suspect (nothing is flagged)
-  write_file(p.dir + "/decisions.csv", "occurrenceID,decision,note\nE1,error,from a locality gazetteer\n");
+  write_file(p.dir + "/decisions.csv", "occurrenceID,decision,note\nE1,error,from a locality gazetteer\nN05,unsure,look again\n");
   ASSERT_EQ(run(screen(p.points, p.dir + "/r2.csv",
                        " --decisions " + p.dir + "/decisions.csv --decisions-template " + p.dir + "/t2.csv"))
                 .exit_code,
             0);
   Table t2 = read_csv(p.dir + "/t2.csv");
-  ASSERT_EQ(t2.rows.size(), 2u);  // E2, now an open suspect, then the earlier decision
+  ASSERT_EQ(t2.rows.size(), 3u);  // E2, now an open suspect, then the earlier decisions by rank
   EXPECT_EQ(t2.rows[0][t2.column("occurrenceID")], "E2");
   EXPECT_EQ(t2.rows[0][t2.column("rank")], "1");
   EXPECT_EQ(t2.rows[0][t2.column("decision")], "");
-  EXPECT_EQ(t2.rows[1][t2.column("occurrenceID")], "E1");
-  EXPECT_EQ(t2.rows[1][t2.column("decision")], "error");
-  EXPECT_EQ(t2.rows[1][t2.column("note")], "from a locality gazetteer");
+  EXPECT_EQ(t2.rows[1][t2.column("occurrenceID")], "N05");  // unsure and not flagged: carried over all the same
+  EXPECT_EQ(t2.rows[1][t2.column("note")], "look again");
+  EXPECT_EQ(t2.rows[2][t2.column("occurrenceID")], "E1");
+  EXPECT_EQ(t2.rows[2][t2.column("decision")], "error");
+  EXPECT_EQ(t2.rows[2][t2.column("note")], "from a locality gazetteer");
   // filled in and read back as it is
   std::string filled = read_file(p.dir + "/t2.csv");
   const auto at = filled.find("\nE2,");
@@ -195,9 +199,11 @@ TEST(ReviewRounds, TheTemplateRoundTrips) {
   EXPECT_EQ(rows["E2"][r3t.column("decision_note")], "checked, a real range edge");
   EXPECT_EQ(rows["E2"][r3t.column("flags")], "");
   const Table t3 = read_csv(p.dir + "/t3.csv");
-  ASSERT_EQ(t3.rows.size(), 2u);  // both decided now, who and when carried over
-  EXPECT_EQ(t3.rows[0][t3.column("reviewer")], "A. Reviewer");
-  EXPECT_EQ(t3.rows[0][t3.column("date")], "2026-12-03");
+  ASSERT_EQ(t3.rows.size(), 3u);  // all decided now, who and when carried over
+  const auto e2 = std::find_if(t3.rows.begin(), t3.rows.end(), [&](const auto& r) { return r[t3.column("occurrenceID")] == "E2"; });
+  ASSERT_NE(e2, t3.rows.end());
+  EXPECT_EQ((*e2)[t3.column("reviewer")], "A. Reviewer");
+  EXPECT_EQ((*e2)[t3.column("date")], "2026-12-03");
 }
 
 }  // namespace

@@ -37,15 +37,15 @@ class DecisionsTemplateOutput : public RecordSink {
   }
 
   void record(const RecordOutcome& o) override {
-    if (!o.verdict || o.rank == 0) return;
+    if (!o.verdict) return;
     const Verdict& v = *o.verdict;
-    const bool suspect = v.for_review();
-    if (!suspect && v.open()) return;
-    std::vector<std::string> row{o.fields->at(id_), table_->points.taxon(o.record), std::to_string(o.rank),
+    const bool suspect = v.for_review() && o.rank > 0;
+    if (!suspect && v.decision == Decision::none) return;  // every earlier decision is carried over
+    std::vector<std::string> row{o.fields->at(id_), table_->points.taxon(o.record), o.rank ? std::to_string(o.rank) : "",
                                  v.score ? format_score(*v.score) : "", join(v.flags.empty() ? split(v.set_aside) : v.flags, ";"),
                                  join(v.reasons, "; "), decision_name(v.decision), v.decision_note, "", ""};
     if (const auto e = earlier_.find(row[0]); e != earlier_.end()) row[8] = e->second.reviewer, row[9] = e->second.date;
-    (suspect ? suspects_ : decided_)[o.rank] = std::move(row);
+    (suspect ? suspects_ : decided_)[{o.rank ? o.rank : kUnranked, o.record}] = std::move(row);
     if (suspects_.size() > top_) suspects_.erase(std::prev(suspects_.end()));  // keep the best-ranked
   }
 
@@ -71,7 +71,8 @@ class DecisionsTemplateOutput : public RecordSink {
   const RecordTable* table_ = nullptr;
   std::size_t id_ = 0, top_ = 200;
   std::map<std::string, DecisionRow> earlier_;
-  std::map<std::size_t, std::vector<std::string>> suspects_, decided_;  // by rank
+  static constexpr std::size_t kUnranked = static_cast<std::size_t>(-1);  // unscored records last
+  std::map<std::pair<std::size_t, std::size_t>, std::vector<std::string>> suspects_, decided_;  // by (rank, record)
 };
 
 }  // namespace
