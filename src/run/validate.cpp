@@ -1,3 +1,4 @@
+#include "envsift/review/decisions.hpp"
 #include "envsift/run/validate.hpp"
 
 #include "envsift/detect/test_registry.hpp"
@@ -22,6 +23,8 @@ void validate(const ScreenSettings& s) {
   if (s.outputs.shard_count > 1 && s.outputs.order == "rank")
     throw UsageError("--shard writes rows in input order (envsift merge ranks them); drop --order rank");
   validate_tests(s);
+  // a decisions file that cannot be used stops the run now, not after the points are sampled
+  if (!s.review.decisions.empty()) (void)read_decision_file(s.review.decisions, s.input.reader.columns.id);
 }
 
 std::vector<OptionSpec> sample_options() {
