@@ -1,8 +1,8 @@
-#include "envsift/review/decisions.hpp"
 #include "envsift/run/validate.hpp"
 
 #include "envsift/detect/test_registry.hpp"
 #include "envsift/errors.hpp"
+#include "envsift/review/decisions.hpp"
 #include "envsift/settings/run_options.hpp"
 #include "envsift/write/output_registry.hpp"
 
