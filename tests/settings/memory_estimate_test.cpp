@@ -66,7 +66,9 @@ TEST(MemoryEstimate, ARealRunStaysUnderItsEstimate) {
       return std::stoul(s);
     };
     EXPECT_LE(number(m[1]), number(m[2])) << r.output;
-    if (!limit.empty()) EXPECT_NE(r.output.find("more than --memory-limit 64 MB; split the run with --shard"), std::string::npos);
+    if (!limit.empty()) {
+      EXPECT_NE(r.output.find("more than --memory-limit 64 MB; split the run with --shard"), std::string::npos);
+    }
   }
 }
 
