@@ -2,15 +2,23 @@
 
 #include <algorithm>
 #include <cmath>
+#include <iterator>
 
 #include "envsift/detect/robust_z.hpp"
 #include "envsift/write/value_format.hpp"
 
 namespace envsift {
 
-std::vector<std::string> taxon_summary_header(const std::vector<std::string>& test_names, bool with_band) {
+namespace {
+constexpr Decision kDecisions[] = {Decision::error, Decision::valid, Decision::unsure};
+}
+
+std::vector<std::string> taxon_summary_header(const std::vector<std::string>& test_names, bool with_band,
+                                              bool with_decisions) {
   std::vector<std::string> header{"taxon", "records", "reference_cells", "scored", "flagged"};
   for (const auto& t : test_names) header.push_back("flagged_" + t);
+  if (with_decisions)
+    for (Decision d : kDecisions) header.push_back(std::string("decided_") + decision_name(d));
   if (with_band)
     for (const char* c : {"elevation_median", "elevation_band_low", "elevation_band_high", "outside_elevation_band"})
       header.push_back(c);
@@ -20,11 +28,13 @@ std::vector<std::string> taxon_summary_header(const std::vector<std::string>& te
 
 std::vector<std::string> taxon_summary_row(const JudgedTaxon& t, const std::vector<Verdict>& verdicts,
                                            const std::vector<std::string>& test_names, const ElevationBand* band,
-                                           const std::string& similar_names) {
+                                           const std::string& similar_names, bool with_decisions) {
   std::size_t scored = 0, flagged = 0;
-  std::vector<std::size_t> per_test(test_names.size(), 0);
+  std::vector<std::size_t> per_test(test_names.size(), 0), decided(std::size(kDecisions), 0);
   for (const Verdict& v : verdicts) {
     scored += v.score.has_value();
+    for (std::size_t d = 0; d < decided.size(); ++d) decided[d] += v.decision == kDecisions[d];
+    if (!v.open()) continue;  // a decided error keeps its flags, but is not a suspect any more
     flagged += !v.flags.empty();
     for (std::size_t k = 0; k < test_names.size(); ++k)
       per_test[k] += std::find(v.flags.begin(), v.flags.end(), test_names[k]) != v.flags.end();
@@ -32,6 +42,8 @@ std::vector<std::string> taxon_summary_row(const JudgedTaxon& t, const std::vect
   std::vector<std::string> row{t.taxon, std::to_string(t.records.size()), std::to_string(t.reference.size()),
                                std::to_string(scored), std::to_string(flagged)};
   for (std::size_t c : per_test) row.push_back(std::to_string(c));
+  if (with_decisions)
+    for (std::size_t c : decided) row.push_back(std::to_string(c));
   if (band) {
     std::vector<double> reference;
     for (std::size_t i : t.reference)

@@ -12,17 +12,12 @@
 #include <gtest/gtest.h>
 
 #include "envsift/write/report/svg_canvas.hpp"
-#include "../support.hpp"
+#include "../report_support.hpp"
 
 namespace envsift {
 namespace {
 
 using namespace envsift::testing;
-
-struct Section {
-  std::string taxon;
-  std::vector<std::string> pictures;  // decoded SVG documents
-};
 
 class HtmlReportTest : public ::testing::Test {
  protected:
@@ -36,29 +31,7 @@ class HtmlReportTest : public ::testing::Test {
   }
   static std::string dir_, html_;
 
-  // Each taxon section with its pictures decoded by coreutils. (Plain searches: std::regex
-  // recurses per character and overflows the stack on pictures of 100 kB.)
-  std::vector<Section> sections() const {
-    std::vector<Section> out;
-    const std::string start = "<section class=\"taxon\" id=\"taxon-", picture = "src=\"data:image/svg+xml;base64,";
-    for (std::size_t at = html_.find(start); at != std::string::npos; at = html_.find(start, at + 1)) {
-      const std::size_t name = html_.find("<h2><i>", at) + 7;
-      Section section{html_.substr(name, html_.find("</i>", name) - name), {}};
-      const std::size_t end = html_.find("</section>", at);
-      for (std::size_t p = html_.find(picture, at); p < end; p = html_.find(picture, p + 1)) {
-        const std::size_t from = p + picture.size();
-        const std::string stem = dir_ + "/picture" + std::to_string(count_++);
-        write_file(stem + ".b64", html_.substr(from, html_.find('"', from) - from));
-        EXPECT_EQ(run("base64 -d " + stem + ".b64 > " + stem + ".svg").exit_code, 0);
-        section.pictures.push_back(read_file(stem + ".svg"));
-      }
-      out.push_back(std::move(section));
-    }
-    return out;
-  }
-
- private:
-  static inline int count_ = 0;
+  std::vector<ReportSection> sections() const { return report_sections(html_, dir_); }
 };
 std::string HtmlReportTest::dir_, HtmlReportTest::html_;
 
@@ -73,6 +46,7 @@ TEST_F(HtmlReportTest, EveryPictureIsWellFormedSvg) {
       write_file(path, svg);
       files += " " + path;
       EXPECT_EQ(svg.rfind("<svg xmlns=\"http://www.w3.org/2000/svg\"", 0), 0u);
+      EXPECT_TRUE(unresolved_references(svg).empty()) << s.taxon;
     }
   EXPECT_GE(pictures, 4);
   const auto r = run("xmllint --noout" + files);

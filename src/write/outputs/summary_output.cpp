@@ -1,5 +1,5 @@
 // One row per taxon (--summary): records, judged, flagged per test, and with --dem the taxon's
-// robust elevation band (write/taxon_summary.hpp).
+// robust elevation band, with --decisions the records decided per decision (write/taxon_summary.hpp).
 #include <map>
 #include <mutex>
 
@@ -27,7 +27,8 @@ class SummaryOutput : public RecordSink {
       }
       band_ = ElevationBand{&low_, &high_, &point_, run.settings.tests.z_cutoff};
     }
-    out_.row(taxon_summary_header(names_, band_.has_value()));
+    decisions_ = !run.settings.review.decisions.empty();
+    out_.row(taxon_summary_header(names_, band_.has_value(), decisions_));
     const auto& p = run.table.points;
     for (std::size_t k = 0; k < p.taxa.size() && k < p.similar_names.size(); ++k)
       if (!p.similar_names[k].empty()) similar_[p.taxa[k]] = p.similar_names[k];
@@ -35,7 +36,7 @@ class SummaryOutput : public RecordSink {
   void taxon(const JudgedTaxon& taxon, const std::vector<Verdict>& verdicts) override {
     const auto similar = similar_.find(taxon.taxon);
     auto row = taxon_summary_row(taxon, verdicts, names_, band_ ? &*band_ : nullptr,
-                                 similar == similar_.end() ? std::string() : similar->second);
+                                 similar == similar_.end() ? std::string() : similar->second, decisions_);
     std::lock_guard<std::mutex> guard(lock_);
     rows_[taxon.index] = std::move(row);
   }
@@ -51,6 +52,7 @@ class SummaryOutput : public RecordSink {
   std::vector<std::string> names_;
   std::vector<double> low_, high_, point_;
   std::optional<ElevationBand> band_;
+  bool decisions_ = false;
   std::mutex lock_;
   std::map<std::size_t, std::vector<std::string>> rows_;
   std::map<std::string, std::string> similar_;  // taxon → names that look like it

@@ -34,7 +34,7 @@ const char* kStyle =
     "table{border-collapse:collapse;margin:.5em 0;font-size:.9em}th,td{border:1px solid #bbb;padding:.2em .5em;"
     "vertical-align:top;text-align:left}th{background:#eee}td.n{text-align:right;font-variant-numeric:tabular-nums}"
     ".taxon{content-visibility:auto;contain-intrinsic-size:auto 1400px;margin-top:2em}"
-    ".pictures{display:flex;flex-wrap:wrap;gap:8px}.pictures img{border:1px solid #ccc;max-width:100%;height:auto}"
+    ".pictures{display:flex;flex-wrap:wrap;gap:8px;align-items:flex-start}.pictures img{border:1px solid #ccc;max-width:100%;height:auto}"
     ".note{color:#444}.flagged{font-weight:bold}"
     "pre{background:#f6f6f6;padding:.6em;overflow:auto;font-size:.8em}"
     "nav a{margin-right:1em}"
@@ -57,11 +57,11 @@ std::string spaced(const std::string& list) {
   return out;
 }
 
-// Whether some suspect's value lies beyond a one-layer test's cutoff on layer l: only such
+// Whether some suspect's (or decided record's) value lies beyond a one-layer test's cutoff on layer l: only such
 // layers get a distribution plot, so a report of many layers and taxa stays small.
 bool beyond_a_cutoff(const TaxonPicture& t, std::size_t l) {
   for (const auto& r : t.records) {
-    if (!r.suspect || !std::isfinite(r.value[l])) continue;
+    if (!r.marked() || !std::isfinite(r.value[l])) continue;
     for (const auto& c : t.layers[l].cutoffs)
       if (c.beyond(r.value[l])) return true;
   }
@@ -77,6 +77,24 @@ std::string cutoff_caption(const TaxonPicture& t) {
   for (const auto& [slot, clause] : clauses) s += (s.empty() ? "" : "; ") + clause;
   if (!s.empty()) s[0] = static_cast<char>(std::toupper(static_cast<unsigned char>(s[0])));
   return s.empty() ? s : s + ". ";
+}
+
+// "1 error, 2 valid": the taxon's records per decision, none left out.
+std::string decided_text(const std::map<Decision, std::size_t>& decided) {
+  std::string s;
+  for (const auto& [d, n] : decided) s += (s.empty() ? "" : ", ") + std::to_string(n) + " " + decision_name(d);
+  return s;
+}
+
+// What the decided records' marks mean, for those the taxon has.
+std::string decided_caption(const std::map<Decision, std::size_t>& decided) {
+  std::string s;
+  if (decided.count(Decision::unsure)) s += "Yellow squares: decided unsure, still open. ";
+  if (decided.count(Decision::valid))
+    s += "Blue diamonds: decided valid, never flagged again (the table shows the flags set aside). ";
+  if (decided.count(Decision::error))
+    s += "Vermillion crosses: decided error, left out of the taxon's statistics. ";
+  return s;
 }
 
 std::string value_text(double v) { return std::isfinite(v) ? svg::number(v) : ""; }
@@ -113,12 +131,19 @@ void HtmlReport::add_section(std::size_t index, const std::string& section) {
 }
 
 std::string HtmlReport::section(std::size_t index, const TaxonPicture& t, std::size_t judged) const {
-  std::size_t suspects = 0;
-  for (const auto& r : t.records) suspects += r.suspect;
+  std::size_t suspects = 0, marked = 0;
+  std::map<Decision, std::size_t> decided;
+  for (const auto& r : t.records) {
+    suspects += r.suspect;
+    marked += r.marked();
+    if (r.decision != Decision::none) ++decided[r.decision];
+  }
   std::string s = "<section class=\"taxon\" id=\"" + taxon_anchor(index) + "\"><h2><i>" + escape(t.taxon) + "</i></h2>";
   s += "<p>" + std::to_string(t.records.size()) + " records, " + std::to_string(judged) + " judged, <span class=\"flagged\">" +
-       std::to_string(suspects) + " suspect</span>; statistics from " + std::to_string(t.reference.rows()) + " " +
-       escape(t.reference_label) + ". <a href=\"#index\">back to the index</a></p>";
+       std::to_string(suspects) + (decided.empty() ? " suspect" : " open suspect") + (suspects == 1 ? "" : "s") + "</span>" +
+       (decided.empty() ? "" : "; decided in earlier rounds: " + decided_text(decided)) + "; statistics from " +
+       std::to_string(t.reference.rows()) + " " + escape(t.reference_label) +
+       ". <a href=\"#index\">back to the index</a></p>";
   if (t.two_populations)
     s += "<p class=\"note\">Its records form two separate groups in the layers' space, so each group was judged "
          "against itself as a population; the plots and cutoffs below show the taxon as a whole.</p>";
@@ -134,10 +159,10 @@ std::string HtmlReport::section(std::size_t index, const TaxonPicture& t, std::s
     const std::string relief = relief_.path.empty() ? "" : shaded_relief_png(relief_.path, relief_.band, *box);
     s += picture(map_plot(t, *box, relief), "map of the records of " + t.taxon + ", suspects marked");
   }
-  if (suspects > 0) {
+  if (marked > 0) {
     if (t.layers.size() >= 2)
       s += picture(pair_plot(t, choose_pair(t, seed_, min_rows_)), "two layers with the robust tolerance ellipse");
-    std::vector<std::string> quiet;  // layers on which no suspect is beyond a one-layer cutoff
+    std::vector<std::string> quiet;  // layers on which no marked record is beyond a one-layer cutoff
     for (std::size_t l = 0; l < t.layers.size(); ++l) {
       if (beyond_a_cutoff(t, l)) s += picture(distribution_plot(t, l), t.layers[l].name + " distribution with cutoffs and suspects");
       else quiet.push_back(t.layers[l].name);
@@ -152,24 +177,30 @@ std::string HtmlReport::section(std::size_t index, const TaxonPicture& t, std::s
     s += "<p class=\"note\">No suspect: the layer plots are left out to keep the report small.</p>";
   }
   s += "</div>";
-  if (suspects > 0) {
+  if (marked > 0) {
     s += "<p class=\"note\">Triangles: suspects (the worst labelled by ID; a black bar spans a record's values within "
-         "its uncertainty disc). Grey: the " + escape(t.reference_label) + " the taxon's statistics come from. " +
-         escape(cutoff_caption(t)) + "Green ellipse: 97.5 % of the taxon's robust (FAST-MCD) bivariate normal.</p>";
-    s += "<table><tr><th>record</th><th>score</th><th>reasons</th>";
+         "its uncertainty disc). " + escape(decided_caption(decided)) + "Grey: the " + escape(t.reference_label) +
+         " the taxon's statistics come from. " + escape(cutoff_caption(t)) +
+         "Green ellipse: 97.5 % of the taxon's robust (FAST-MCD) bivariate normal.</p>";
+    s += "<table><tr><th>record</th><th>score</th>";
+    if (!decided.empty()) s += "<th>decision</th><th>note</th>";
+    s += "<th>reasons</th>";
     for (const auto& l : t.layers) s += "<th>" + escape(l.name) + "</th>";
     s += "</tr>";
     std::size_t listed = 0;
-    for (const auto& r : t.records) {
-      if (!r.suspect || listed++ == kTableRows) continue;
-      s += "<tr>" + cell(r.label) + cell(format_score(r.score), true) + cell(r.reasons);
+    for (const auto& r : t.records) {  // open suspects first, then decided records
+      if (!r.marked() || listed++ == kTableRows) continue;
+      s += "<tr>" + cell(r.label) + cell(format_score(r.score), true);
+      if (!decided.empty()) s += cell(decision_name(r.decision)) + cell(r.note);
+      s += cell(r.reasons);
       for (std::size_t l = 0; l < t.layers.size(); ++l) s += cell(value_text(r.value[l]), true);
       s += "</tr>";
     }
     s += "</table>";
-    if (suspects > kTableRows)
-      s += "<p class=\"note\">The " + std::to_string(kTableRows) + " worst of " + std::to_string(suspects) +
-           " suspects are listed; the output CSV has them all (--order rank lists them worst first).</p>";
+    if (marked > kTableRows)
+      s += "<p class=\"note\">The first " + std::to_string(kTableRows) + " of " + std::to_string(marked) +
+           (decided.empty() ? " suspects" : " suspects and decided records") +
+           " are listed, worst first; the output CSV has them all (--order rank lists them worst first).</p>";
   }
   s += "</section>\n";
   return s;
@@ -193,9 +224,23 @@ void HtmlReport::finish(const ReportOverview& o) {
   for (const auto& [what, value] : o.inputs) s += "<tr><th>" + escape(what) + "</th>" + cell(value) + "</tr>";
   s += "</table><p>Tests:</p><ul>";
   for (const auto& t : o.tests) s += "<li>" + escape(t) + "</li>";
-  s += "</ul><table><tr><th>records read</th><th>scored</th><th>flagged</th><th>not scored</th></tr><tr>" +
-       cell(std::to_string(o.read), true) + cell(std::to_string(o.scored), true) +
-       cell(std::to_string(o.flagged), true) + cell(std::to_string(o.read - o.scored), true) + "</tr></table>";
+  s += std::string("</ul><table><tr><th>records read</th><th>scored</th><th>") +
+       (o.with_decisions ? "open suspects</th><th>decided in earlier rounds" : "flagged") +
+       "</th><th>not scored</th></tr><tr>" + cell(std::to_string(o.read), true) + cell(std::to_string(o.scored), true) +
+       cell(std::to_string(o.flagged), true);
+  if (o.with_decisions) {
+    std::size_t decided = 0;
+    std::string each;
+    for (const char* d : {"error", "valid", "unsure"})  // as in each taxon's section
+      if (const auto n = o.decided.find(d); n != o.decided.end())
+        decided += n->second, each += (each.empty() ? "" : ", ") + std::to_string(n->second) + " " + d;
+    s += cell(std::to_string(decided) + (each.empty() ? "" : " (" + each + ")"), true);
+  }
+  s += cell(std::to_string(o.read - o.scored), true) + "</tr></table>";
+  if (o.with_decisions)
+    s += "<p class=\"note\">Records decided error or valid in earlier rounds are not among the suspects: error ones "
+         "are left out of their taxon's statistics, valid ones are never flagged again. Records decided unsure stay "
+         "open. Each taxon's section lists its decided records with their notes.</p>";
   if (!o.not_scored.empty()) {
     s += "<p>Records not scored, by the reason that prevented scoring (each is in the output with all its reasons):</p><table>"
          "<tr><th>reason</th><th>records</th></tr>";
@@ -231,12 +276,16 @@ void HtmlReport::finish(const ReportOverview& o) {
   if (drawn.size() < taxa_.size())
     s += "<p class=\"note\">Sections are drawn for the " + std::to_string(drawn.size()) + " taxa whose worst suspect "
          "scores highest (--report-taxa); the others are listed without a link, their records are in the output CSV.</p>";
-  s += "<table><tr><th>taxon</th><th>records</th><th>judged</th><th>suspects</th></tr>";
-  for (const auto& [index, e] : taxa_)
+  s += std::string("<table><tr><th>taxon</th><th>records</th><th>judged</th><th>") +
+       (o.with_decisions ? "open suspects</th><th>decided" : "suspects") + "</th></tr>";
+  for (const auto& [index, e] : taxa_) {
     s += "<tr><td>" + (drawn.count(index) ? "<a href=\"#" + taxon_anchor(index) + "\"><i>" + escape(e.listing.name) + "</i></a>"
                                          : "<i>" + escape(e.listing.name) + "</i>") + "</td>" +
          cell(std::to_string(e.listing.records), true) + cell(std::to_string(e.listing.judged), true) +
-         cell(std::to_string(e.listing.suspects), true) + "</tr>";
+         cell(std::to_string(e.listing.suspects), true);
+    if (o.with_decisions) s += cell(std::to_string(e.listing.decided), true);
+    s += "</tr>";
+  }
   s += "</table>";
   out.write(s);
   std::vector<std::string> section;

@@ -64,10 +64,12 @@ class ReportOutput : public RecordSink {
   }
 
   void taxon(const JudgedTaxon& taxon, const std::vector<Verdict>& verdicts) override {
-    TaxonListing listing{taxon.taxon, taxon.records.size(), judged(verdicts), 0};
+    TaxonListing listing{taxon.taxon, taxon.records.size(), judged(verdicts), 0, 0};
     double worst = 0;
-    for (const auto& v : verdicts)
+    for (const auto& v : verdicts) {
       if (v.for_review()) ++listing.suspects, worst = std::max(worst, v.score.value_or(0));
+      listing.decided += v.decision != Decision::none;
+    }
     report_->list_taxon(taxon.index, listing);
     std::lock_guard<std::mutex> guard(lock_);
     taxon_index_[taxon.taxon] = taxon.index;
@@ -97,6 +99,7 @@ class ReportOutput : public RecordSink {
         v.inputs.emplace_back("layer " + l.spec.name, l.spec.path + (l.spec.band > 1 ? " (band " + std::to_string(l.spec.band) + ")" : ""));
     else
       for (const auto& c : s.input.value_columns) v.inputs.emplace_back("value column", c);
+    if (!s.review.decisions.empty()) v.inputs.emplace_back("decisions from earlier rounds", s.review.decisions);
     v.inputs.emplace_back("output", s.outputs.out);
     v.inputs.emplace_back("statistics from", s.tests.all_records ? "every record of each taxon"
                                                                   : "one row per distinct raster cell of each taxon");
@@ -105,6 +108,8 @@ class ReportOutput : public RecordSink {
     v.read = summary.read;
     v.scored = summary.scored;
     v.flagged = summary.flagged;
+    v.with_decisions = !s.review.decisions.empty();
+    v.decided = summary.decided;
     v.not_scored = summary.not_scored;
     v.codes = summary.codes;
     v.warnings = summary.warnings;
@@ -207,11 +212,13 @@ TaxonPicture ReportOutput::picture(const JudgedTaxon& taxon, const std::vector<V
     const Verdict& v = verdicts[k];
     PlotRecord r;
     r.suspect = v.for_review();
-    r.label = r.suspect ? label(i) : std::string();
+    r.decision = v.decision;
+    r.note = v.decision_note;
+    r.label = r.marked() ? label(i) : std::string();
     r.longitude = t.points.records[i].longitude;
     r.latitude = t.points.records[i].latitude;
     r.score = v.score.value_or(0);
-    r.reasons = reasons_text(v);
+    r.reasons = v.set_aside.empty() ? reasons_text(v) : "set aside: " + v.set_aside;
     for (const auto& w : v.withheld())
       if (std::find(p.withheld_tests.begin(), p.withheld_tests.end(), w) == p.withheld_tests.end()) p.withheld_tests.push_back(w);
     for (std::size_t l = 0; l < layers; ++l) {
@@ -222,9 +229,10 @@ TaxonPicture ReportOutput::picture(const JudgedTaxon& taxon, const std::vector<V
     }
     p.records.push_back(std::move(r));
   }
-  // suspects first, worst first, so that the labelled ones are the worst
-  std::stable_sort(p.records.begin(), p.records.end(), [](const PlotRecord& a, const PlotRecord& b) {
-    return a.suspect != b.suspect ? a.suspect : a.suspect && a.score > b.score;
+  // open suspects first, then decided records, worst first, so that the labelled ones are the worst
+  auto order = [](const PlotRecord& r) { return r.suspect ? 0 : r.marked() ? 1 : 2; };
+  std::stable_sort(p.records.begin(), p.records.end(), [&](const PlotRecord& a, const PlotRecord& b) {
+    return order(a) != order(b) ? order(a) < order(b) : order(a) < 2 && a.score > b.score;
   });
   return p;
 }

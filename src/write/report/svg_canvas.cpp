@@ -125,9 +125,39 @@ void Plot::vertical(double v, const char* colour, const std::string& dash, const
            (dash.empty() ? "" : " stroke-dasharray=\"" + dash + "\"") + "><title>" + escape(label) + "</title></line>";
 }
 
-void Plot::suspect(double px, double py, const std::string& record, bool label) {
-  // one shared symbol per picture (defined in finish()): a report of thousands of suspects stays small
-  body_ += "<use href=\"#suspect\" x=\"" + number(px) + "\" y=\"" + number(py) + "\" data-record=\"" + escape(record) + "\"/>";
+namespace {
+// The marks' shapes around (0, 0), about 12 pixels across.
+std::string mark_shape(Mark kind) {
+  switch (kind) {
+    case Mark::suspect:
+      return std::string("<path d=\"M0 -6 l5.5 9.5 h-11 z\" fill=\"") + colour::suspect + "\" stroke=\"#000\"/>";
+    case Mark::unsure:
+      return std::string("<rect x=\"-4.5\" y=\"-4.5\" width=\"9\" height=\"9\" fill=\"") + colour::unsure +
+             "\" stroke=\"#000\"/>";
+    case Mark::valid:
+      return std::string("<path d=\"M0 -6 l6 6 l-6 6 l-6 -6 z\" fill=\"") + colour::valid + "\" stroke=\"#000\"/>";
+    case Mark::error:
+      return std::string("<path d=\"M-4.5 -4.5 l9 9 m0 -9 l-9 9\" stroke=\"#000\" stroke-width=\"4.6\"/>"
+                         "<path d=\"M-4.5 -4.5 l9 9 m0 -9 l-9 9\" stroke=\"") + colour::error + "\" stroke-width=\"2.6\"/>";
+  }
+  return "";
+}
+const char* mark_id(Mark kind) {
+  static const char* ids[] = {"suspect", "unsure", "valid", "error"};
+  return ids[static_cast<int>(kind)];
+}
+}  // namespace
+
+const char* mark_words(Mark kind) {
+  static const char* words[] = {"suspect", "unsure (open)", "decided valid", "decided error"};
+  return words[static_cast<int>(kind)];
+}
+
+void Plot::mark(Mark kind, double px, double py, const std::string& record, bool label) {
+  // one shared symbol per picture (defined in finish()): a report of thousands of marks stays small
+  used_[static_cast<int>(kind)] = true;
+  body_ += std::string("<use href=\"#") + mark_id(kind) + "\" x=\"" + number(px) + "\" y=\"" + number(py) +
+           "\" data-record=\"" + escape(record) + "\"/>";
   if (label) {
     const bool left_of = px > right() - 70;  // keep the label inside the picture
     body_ += "<text x=\"" + number(left_of ? px - 7 : px + 7) + "\" y=\"" + number(py - 5) + "\"" +
@@ -137,27 +167,35 @@ void Plot::suspect(double px, double py, const std::string& record, bool label) 
 }
 
 void Plot::legend(const std::vector<std::pair<std::string, std::string>>& entries) {
-  double x = left();
+  double x = left(), y = 24;
   for (const auto& [mark, words] : entries) {
-    legend_ += "<g transform=\"translate(" + number(x) + " 24)\">" + mark + "<text x=\"20\" y=\"10\">" + escape(words) +
-               "</text></g>";
-    x += 28 + 6.2 * static_cast<double>(words.size());
+    const double width = 28 + 6.2 * static_cast<double>(words.size());
+    if (x > left() && x + width > width_) {  // a new row: the picture grows by it
+      x = left(), y += 15;
+      top_ += 15, height_ += 15;
+    }
+    legend_ += "<g transform=\"translate(" + number(x) + " " + number(y) + ")\">" + mark + "<text x=\"20\" y=\"10\">" +
+               escape(words) + "</text></g>";
+    x += width;
   }
+  y_ = {y_.domain_low, y_.domain_high, bottom(), top()};
 }
 
 std::string Plot::finish() const {
+  std::string defs;
+  for (Mark kind : {Mark::suspect, Mark::unsure, Mark::valid, Mark::error})
+    if (used_[static_cast<int>(kind)]) defs += std::string("<g id=\"") + mark_id(kind) + "\">" + mark_shape(kind) + "</g>";
   return "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"" + number(width_) + "\" height=\"" + number(height_) +
          "\" viewBox=\"0 0 " + number(width_) + " " + number(height_) +
          "\" font-family=\"DejaVu Sans, Arial, sans-serif\" font-size=\"11\">"
-         "<defs><path id=\"suspect\" d=\"M0 -6 l5.5 9.5 h-11 z\" fill=\"" + std::string(colour::suspect) +
-         "\" stroke=\"#000\" stroke-width=\"1\"/></defs>"
+         "<defs>" + defs + "</defs>"
          "<rect width=\"100%\" height=\"100%\" fill=\"#fff\"/>"
          "<text x=\"" + number(left()) + "\" y=\"15\" font-size=\"12\" font-weight=\"bold\">" + escape(title_) +
          "</text>" + legend_ + body_ + "</svg>";
 }
 
-std::string legend_suspect() {
-  return std::string("<path d=\"M8 0 l6 10 h-12 z\" fill=\"") + colour::suspect + "\" stroke=\"#000\"/>";
+std::string legend_mark(Mark kind) {
+  return "<g transform=\"translate(8 6)\">" + mark_shape(kind) + "</g>";
 }
 std::string legend_line(const char* colour, const std::string& dash) {
   return std::string("<line x1=\"0\" y1=\"6\" x2=\"16\" y2=\"6\" stroke=\"") + colour + "\" stroke-width=\"1.6\"" +

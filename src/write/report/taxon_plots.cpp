@@ -14,7 +14,15 @@
 namespace envsift {
 namespace {
 
-constexpr std::size_t kLabelled = 8;  // suspects labelled by name in a picture; the rest are marked
+// Which marks of a picture carry their ID: the 8 worst suspects and the first 4 decided records
+// (records come suspects first, worst first); the rest are marks only, their IDs in the table.
+class Labels {
+ public:
+  bool next(const PlotRecord& r) { return r.suspect ? suspects_++ < 8 : decided_++ < 4; }
+
+ private:
+  std::size_t suspects_ = 0, decided_ = 0;
+};
 
 std::string axis_label(const PlotLayer& l) { return l.unit.empty() ? l.name : l.name + " (" + l.unit + ")"; }
 
@@ -42,7 +50,28 @@ void dots(svg::Plot& plot, const std::vector<std::pair<double, double>>& pixels,
   plot.raw(s + "</g>");
 }
 
+// Legend entries of the marks: "suspect" always, a decided record's mark when the taxon has one.
+std::vector<std::pair<std::string, std::string>> marks_legend(const TaxonPicture& t) {
+  bool present[4] = {true, false, false, false};
+  for (const auto& r : t.records)
+    if (r.marked()) present[static_cast<int>(r.mark())] = true;
+  std::vector<std::pair<std::string, std::string>> entries;
+  for (svg::Mark m : {svg::Mark::suspect, svg::Mark::unsure, svg::Mark::valid, svg::Mark::error})
+    if (present[static_cast<int>(m)]) entries.emplace_back(svg::legend_mark(m), svg::mark_words(m));
+  return entries;
+}
+
 }  // namespace
+
+svg::Mark PlotRecord::mark() const {
+  switch (decision) {
+    case Decision::error: return svg::Mark::error;
+    case Decision::valid: return svg::Mark::valid;
+    case Decision::unsure: return svg::Mark::unsure;
+    case Decision::none: break;
+  }
+  return svg::Mark::suspect;
+}
 
 CutoffLook cutoff_style(int slot) {
   static const CutoffLook looks[] = {{svg::colour::cutoff[0], "7 4", "blue dashed"},
@@ -63,9 +92,14 @@ std::string distribution_plot(const TaxonPicture& t, std::size_t l) {
   };
   for (double v : values) include(v);
   for (const auto& r : t.records)
-    if (r.suspect) include(r.low[l]), include(r.high[l]), include(r.value[l]);
+    if (r.marked()) include(r.low[l]), include(r.high[l]), include(r.value[l]);
   for (const auto& c : layer.cutoffs) include(c.low), include(c.high);
   svg::Plot plot(480, 230, layer.name + ": " + t.taxon);
+  auto legend = marks_legend(t);
+  legend.insert(legend.begin(), {svg::legend_box(svg::colour::bars), t.reference_label});
+  for (const auto& c : layer.cutoffs)
+    legend.emplace_back(svg::legend_line(cutoff_style(c.slot).colour, cutoff_style(c.slot).dash), c.label);
+  plot.legend(legend);
   if (!std::isfinite(lo)) lo = 0, hi = 1;
   plot.x_range(lo, hi);
   // 30 bins over the padded axis
@@ -90,8 +124,9 @@ std::string distribution_plot(const TaxonPicture& t, std::size_t l) {
   }
   std::vector<std::string> missing;
   std::size_t k = 0;
+  Labels labels;
   for (const auto& r : t.records) {
-    if (!r.suspect) continue;
+    if (!r.marked()) continue;
     if (!std::isfinite(r.value[l])) {
       missing.push_back(r.label);
       continue;
@@ -100,16 +135,11 @@ std::string distribution_plot(const TaxonPicture& t, std::size_t l) {
     if (std::isfinite(r.low[l]) && r.low[l] < r.high[l])
       plot.raw("<line x1=\"" + svg::number(plot.x()(r.low[l])) + "\" y1=\"" + svg::number(py) + "\" x2=\"" +
                svg::number(plot.x()(r.high[l])) + "\" y2=\"" + svg::number(py) + "\" stroke=\"#000\" stroke-width=\"1.5\"/>");
-    plot.suspect(plot.x()(r.value[l]), py, r.label, k < kLabelled);
+    plot.mark(r.mark(), plot.x()(r.value[l]), py, r.label, labels.next(r));
     ++k;
   }
   plot.axes(axis_label(layer), t.reference_label);
   unplaced(plot, missing, plot.top() + 66);
-  std::vector<std::pair<std::string, std::string>> legend{{svg::legend_box(svg::colour::bars), t.reference_label},
-                                                          {svg::legend_suspect(), "suspect"}};
-  for (const auto& c : layer.cutoffs)
-    legend.emplace_back(svg::legend_line(cutoff_style(c.slot).colour, cutoff_style(c.slot).dash), c.label);
-  plot.legend(legend);
   return plot.finish();
 }
 
@@ -125,7 +155,7 @@ LayerPair choose_pair(const TaxonPicture& t, std::uint64_t seed, std::size_t min
       continue;
     }
     for (const auto& r : t.records)
-      if (r.suspect && std::isfinite(r.value[l])) outness[l] += std::fabs(r.value[l] - s.median) / s.spread;
+      if (r.marked() && std::isfinite(r.value[l])) outness[l] += std::fabs(r.value[l] - s.median) / s.spread;
   }
   std::vector<std::size_t> order(layers);
   for (std::size_t l = 0; l < layers; ++l) order[l] = l;
@@ -173,9 +203,13 @@ std::string pair_plot(const TaxonPicture& t, const LayerPair& p) {
   };
   for (Eigen::Index r = 0; r < t.reference.rows(); ++r) include(t.reference(r, a), t.reference(r, b));
   for (const auto& r : t.records)
-    if (r.suspect) include(r.value[p.a], r.value[p.b]);
+    if (r.marked()) include(r.value[p.a], r.value[p.b]);
   for (const auto& v : ring) include(v.x(), v.y());
   svg::Plot plot(440, 400, t.layers[p.a].name + " × " + t.layers[p.b].name + ": " + t.taxon);
+  auto legend = marks_legend(t);
+  legend.insert(legend.begin(), {svg::legend_dot(svg::colour::points), t.reference_label});
+  if (p.has_ellipse) legend.emplace_back(svg::legend_line(svg::colour::ellipse, ""), "robust 97.5 % ellipse");
+  plot.legend(legend);
   if (!std::isfinite(x_lo)) x_lo = 0, x_hi = 1, y_lo = 0, y_hi = 1;
   plot.x_range(x_lo, x_hi);
   plot.y_range(y_lo, y_hi);
@@ -191,18 +225,14 @@ std::string pair_plot(const TaxonPicture& t, const LayerPair& p) {
              "\" stroke-width=\"2\"><title>robust 97.5 % tolerance ellipse</title></path>");
   }
   std::vector<std::string> missing;
-  std::size_t k = 0;
+  Labels labels;
   for (const auto& r : t.records) {
-    if (!r.suspect) continue;
+    if (!r.marked()) continue;
     if (!std::isfinite(r.value[p.a]) || !std::isfinite(r.value[p.b])) missing.push_back(r.label);
-    else plot.suspect(plot.x()(r.value[p.a]), plot.y()(r.value[p.b]), r.label, k++ < kLabelled);
+    else plot.mark(r.mark(), plot.x()(r.value[p.a]), plot.y()(r.value[p.b]), r.label, labels.next(r));
   }
   plot.axes(axis_label(t.layers[p.a]), axis_label(t.layers[p.b]));
   unplaced(plot, missing, plot.bottom() - 6);
-  std::vector<std::pair<std::string, std::string>> legend{{svg::legend_dot(svg::colour::points), t.reference_label},
-                                                          {svg::legend_suspect(), "suspect"}};
-  if (p.has_ellipse) legend.emplace_back(svg::legend_line(svg::colour::ellipse, ""), "robust 97.5 % ellipse");
-  plot.legend(legend);
   return plot.finish();
 }
 
@@ -230,6 +260,10 @@ std::optional<MapBox> map_box(const TaxonPicture& t) {
 
 std::string map_plot(const TaxonPicture& t, const MapBox& box, const std::string& relief_png) {
   svg::Plot plot(box.width + 62 + 16, box.height + 40 + 46, "Records of " + t.taxon);
+  auto legend = marks_legend(t);
+  legend.insert(legend.begin(), {svg::legend_dot(svg::colour::points), "record"});
+  if (!relief_png.empty()) legend.emplace_back(svg::legend_box("#999"), "shaded relief (DEM)");
+  plot.legend(legend);
   plot.x_range(box.west, box.east, 0);
   plot.y_range(box.south, box.north, 0);
   if (!relief_png.empty())
@@ -238,21 +272,17 @@ std::string map_plot(const TaxonPicture& t, const MapBox& box, const std::string
              "\" preserveAspectRatio=\"none\" opacity=\"0.75\" href=\"" + svg::data_uri("image/png", relief_png) + "\"/>");
   std::vector<std::pair<double, double>> pixels;
   for (const auto& r : t.records)
-    if (!r.suspect && std::isfinite(r.longitude)) pixels.emplace_back(plot.x()(r.longitude), plot.y()(r.latitude));
+    if (!r.marked() && std::isfinite(r.longitude)) pixels.emplace_back(plot.x()(r.longitude), plot.y()(r.latitude));
   dots(plot, pixels, 2.6);
   std::vector<std::string> missing;
-  std::size_t k = 0;
+  Labels labels;
   for (const auto& r : t.records) {
-    if (!r.suspect) continue;
+    if (!r.marked()) continue;
     if (!std::isfinite(r.longitude) || !std::isfinite(r.latitude)) missing.push_back(r.label);
-    else plot.suspect(plot.x()(r.longitude), plot.y()(r.latitude), r.label, k++ < kLabelled);
+    else plot.mark(r.mark(), plot.x()(r.longitude), plot.y()(r.latitude), r.label, labels.next(r));
   }
   plot.axes("longitude (°)", "latitude (°)");
   unplaced(plot, missing, plot.bottom() - 6);
-  std::vector<std::pair<std::string, std::string>> legend{{svg::legend_dot(svg::colour::points), "record"},
-                                                          {svg::legend_suspect(), "suspect"}};
-  if (!relief_png.empty()) legend.emplace_back(svg::legend_box("#999"), "shaded relief (DEM)");
-  plot.legend(legend);
   return plot.finish();
 }
 

@@ -33,7 +33,9 @@ struct ReportOverview {
   std::string title;
   std::vector<std::pair<std::string, std::string>> inputs;  // (what, path or text)
   std::vector<std::string> tests;                           // one line per test: what it flags
-  std::size_t read = 0, scored = 0, flagged = 0;
+  std::size_t read = 0, scored = 0, flagged = 0;            // flagged: open suspects
+  bool with_decisions = false;                              // --decisions was given
+  std::map<std::string, std::size_t> decided;               // records per decision
   std::map<std::string, std::size_t> not_scored;            // by reason code
   std::map<std::string, std::size_t> codes;                 // every reason code
   std::vector<std::string> warnings;
@@ -49,7 +51,8 @@ struct ReliefSource {
 // A taxon as the index lists it.
 struct TaxonListing {
   std::string name;
-  std::size_t records = 0, judged = 0, suspects = 0;
+  std::size_t records = 0, judged = 0, suspects = 0;  // suspects: open ones
+  std::size_t decided = 0;                            // records decided in earlier rounds
 };
 
 class HtmlReport {

@@ -4,7 +4,8 @@
 //   - the two layers on which the suspects stand out most, with the robust 97.5 % tolerance
 //     ellipse (reweighted FAST-MCD centre and scatter of those two layers, χ²₂ quantile);
 //   - a longitude/latitude map of the taxon's records, over shaded relief when a DEM is given.
-// Every suspect appears in every picture: as a mark, or as a note when it has no value there.
+// Every suspect appears in every picture: as a mark, or as a note when it has no value there; so
+// does every record decided in an earlier round, in its own mark (svg::Mark).
 #pragma once
 #include <cstddef>
 #include <cstdint>
@@ -14,6 +15,9 @@
 #include <vector>
 
 #include <Eigen/Core>
+
+#include "envsift/review/decision.hpp"
+#include "envsift/write/report/svg_canvas.hpp"
 
 namespace envsift {
 
@@ -45,9 +49,14 @@ struct PlotRecord {
   double longitude = 0, latitude = 0;  // NaN when unknown
   std::vector<double> value;  // per layer, NaN = none
   std::vector<double> low, high;  // per layer: the disc's range (equal to value without a disc)
-  bool suspect = false;
+  bool suspect = false;       // open and flagged (Verdict::for_review)
+  Decision decision = Decision::none;  // from an earlier round (--decisions)
+  std::string note;           // the reviewer's note on it
   double score = 0;
-  std::string reasons;        // the verdict's words
+  std::string reasons;        // the verdict's words (for a valid record: what was set aside)
+  // Drawn with its own mark, not as a plain dot: a suspect, or a record a reviewer decided.
+  bool marked() const { return suspect || decision != Decision::none; }
+  svg::Mark mark() const;
 };
 
 struct TaxonPicture {
@@ -55,7 +64,7 @@ struct TaxonPicture {
   std::vector<PlotLayer> layers;
   Eigen::MatrixXd reference;       // rows the statistics came from × layers (NaN = none)
   std::string reference_label;     // what a reference row is, e.g. "distinct cells"
-  std::vector<PlotRecord> records; // every record of the taxon; suspects in order of score
+  std::vector<PlotRecord> records; // every record of the taxon; suspects first, then decided, worst first
   bool two_populations = false;    // judged as two populations (group/populations.hpp)
   std::vector<std::string> withheld_tests;  // tests whose flags the population guard withheld here
 };
