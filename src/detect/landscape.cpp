@@ -374,9 +374,15 @@ std::vector<Finding> LandscapeTest::judge(const TaxonValues& taxon) const {
       if (gained < 1e-10) break;
     }
     const double log_ratio = std::min(log_n_over_m - eta, 700.0);
+    // "At most the record's η", ties included: a cell or place in the record's own environment
+    // (often its own cell) gets η by another sum of the same terms, equal up to rounding, and the
+    // rounding differs with the machine's maths library; a tolerance far above rounding and far
+    // below any real difference makes the count the same everywhere.
+    const double at_most = eta + 1e-9 * std::max(1.0, std::fabs(eta));
     const double area_share =
-        static_cast<double>(std::upper_bound(eta_land.begin(), eta_land.end(), eta) - eta_land.begin()) / static_cast<double>(m);
-    const auto places_there = static_cast<std::size_t>(std::upper_bound(eta_places.begin(), eta_places.end(), eta) - eta_places.begin());
+        static_cast<double>(std::upper_bound(eta_land.begin(), eta_land.end(), at_most) - eta_land.begin()) / static_cast<double>(m);
+    const auto places_there =
+        static_cast<std::size_t>(std::upper_bound(eta_places.begin(), eta_places.end(), at_most) - eta_places.begin());
     f.tested = true;
     f.statistic = std::exp(log_ratio);
     f.threshold = options_.ratio_cutoff;

@@ -6,7 +6,10 @@
 //  2. The density ratio itself, against its closed form: landscape N(0, 1), taxon N(1, 0.5²), so
 //     a(x)/f(x) = φ(x) / (φ((x − 1)/0.5)/0.5) (normal densities; textbook algebra). The fitted
 //     ratio must be within a factor e^0.35 of it across the taxon's range.
-//  3. What the test cannot judge says why (no landscape, too few places, a missing value).
+//  3. Ties: on rounded layers (a DEM in whole metres, a raster rounded to 0.1), many cells share the
+//     record's environment; "at most as suited" counts all of them, whatever the rounding of η (the
+//     share is then a whole number of environments: arithmetic). It failed before ties were counted.
+//  4. What the test cannot judge says why (no landscape, too few places, a missing value).
 // Samples are deterministic normal quantiles Φ⁻¹((i − 0.5)/n), so nothing here is random.
 #include <cmath>
 
@@ -68,6 +71,34 @@ TEST(Landscape, RatioMatchesTheClosedFormForNormalLandscapeAndTaxon) {
     const double x = at[i];
     const double truth = boost::math::pdf(normal, x) / (boost::math::pdf(normal, (x - 1) / 0.5) / 0.5);
     EXPECT_NEAR(std::log(findings[i].statistic), std::log(truth), 0.35) << "x = " << x;
+  }
+}
+
+TEST(Landscape, CellsAndPlacesInTheRecordsOwnEnvironmentAreCountedAsAtMostAsSuited) {
+  // three layers rounded to 0.1 (a rounded raster): a landscape of 6 environments, each on 150
+  // cells; the taxon in two of them and, with 3 places, in a third; the record in that third one
+  const double env[6][3] = {{1.2, 20.3, 0.7}, {1.9, 18.1, 0.4}, {2.6, 16.7, 0.9},
+                            {3.1, 15.2, 0.3}, {3.4, 14.9, 0.8}, {0.3, 23.9, 0.1}};
+  const auto rows = [&](std::vector<std::pair<int, int>> counts) {  // (environment, cells)
+    Eigen::MatrixXd m(0, 3);
+    for (const auto& [e, n] : counts)
+      for (int k = 0; k < n; ++k) {
+        m.conservativeResize(m.rows() + 1, 3);
+        m.row(m.rows() - 1) << env[e][0], env[e][1], env[e][2];
+      }
+    return m;
+  };
+  const LandscapeValues landscape{rows({{0, 150}, {1, 150}, {2, 150}, {3, 150}, {4, 150}, {5, 150}}), "nearby"};
+  const Eigen::MatrixXd places = rows({{3, 60}, {4, 60}, {1, 3}});
+  const std::vector<std::string> names{"a", "b", "c"};
+  for (int e = 0; e < 6; ++e) {
+    SCOPED_TRACE("environment " + std::to_string(e));
+    const auto f = LandscapeTest().judge({places, rows({{e, 1}}), names, 1, nullptr, nullptr, &landscape})[0];
+    ASSERT_TRUE(f.tested);
+    // the share is a whole number of environments: every cell of the record's own is counted
+    const double environments = f.extras[0] * 6;
+    EXPECT_NEAR(environments, std::round(environments), 1e-9);
+    EXPECT_GE(environments, 1);
   }
 }
 
