@@ -376,8 +376,8 @@ std::vector<Finding> LandscapeTest::judge(const TaxonValues& taxon) const {
     const double log_ratio = std::min(log_n_over_m - eta, 700.0);
     // "At most the record's η", ties included: a cell or place in the record's own environment
     // (often its own cell) gets η by another sum of the same terms, equal up to rounding, and the
-    // rounding differs with the machine's maths library; a tolerance far above rounding and far
-    // below any real difference makes the count the same everywhere.
+    // rounding was seen to differ between machines; a tolerance far above rounding and far below
+    // any real difference makes the count the same everywhere.
     const double at_most = eta + 1e-9 * std::max(1.0, std::fabs(eta));
     const double area_share =
         static_cast<double>(std::upper_bound(eta_land.begin(), eta_land.end(), at_most) - eta_land.begin()) / static_cast<double>(m);

@@ -37,7 +37,7 @@ TEST(SyntheticWorkload, MemoryLimitAndThreadCountDoNotChangeTheOutput) {
 // double and must write the same output: byte for byte, except that rainfall's values are written
 // as the shortest text of its Float32 cell ("920.73224") from the original and of the double
 // ("920.7322387695312") from the copy — the same number once read as a float. (This replaces SHA-256s of the output recorded
-// on one machine: the maths library's last bits differ between machines, see landscape.cpp.)
+// on one machine: last bits of rounding differ between machines, see landscape.cpp.)
 TEST(SyntheticWorkload, FloatStorageWritesWhatDoubleStorageWrites) {
   const auto dir = temp_dir("synthetic-float");
   const std::string bench = std::string(ENVSIFT_BENCH_BINARY);
