@@ -9,7 +9,7 @@ bool prevents_scoring(const std::string& code) {
   static const std::string notes[] = {coord_dms,         coord_hemisphere,        coord_decimal_comma, latin1_converted,
                                       duplicate_id,      ragged_row,              spans_lines,              uncertainty_not_numeric,
                                       uncertainty_capped, coord_possibly_swapped, elevation_unreadable, elevation_ambiguous,
-                                      elevation_approximate, looks_multimodal};
+                                      elevation_approximate, looks_multimodal, no_range};
   const std::string base = code.substr(0, code.find(':'));
   return std::find(std::begin(notes), std::end(notes), base) == std::end(notes);
 }

@@ -42,6 +42,8 @@ inline const std::string too_few_records = "too_few_records";  // taxon too smal
 inline const std::string other_shard = "other_shard";  // --shard: another shard screens this record
 // suffix ":<test>": the test flagged so much of the taxon that its flags were withheld
 inline const std::string looks_multimodal = "looks_multimodal";
+// Ranges (--ranges): the record's taxon has no range in the range layer (no verdict on it)
+inline const std::string no_range = "no_range";
 // Review (--decisions): a reviewer confirmed the record wrong; kept out of its taxon's statistics
 inline const std::string reviewed_error = "reviewed_error";
 

@@ -13,6 +13,7 @@ TestEntry mahalanobis_entry();
 TestEntry robust_mahalanobis_entry();
 TestEntry landscape_entry();
 TestEntry reported_elevation_entry();
+TestEntry range_check_entry();
 
 // The registry: one line per test, in the order their columns are written.
 const std::vector<TestEntry>& test_registry() {
@@ -23,6 +24,7 @@ const std::vector<TestEntry>& test_registry() {
       robust_mahalanobis_entry(),
       landscape_entry(),
       reported_elevation_entry(),
+      range_check_entry(),
   };
   return entries;
 }

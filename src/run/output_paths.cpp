@@ -34,6 +34,7 @@ void refuse_unsafe_outputs(const ScreenSettings& s, bool sample) {
   if (s.input.value_columns.empty())
     for (const auto& spec : expand_layer_arguments(s.input.layers)) inputs.push_back({"--layers", spec.path});
   if (!sample && !s.review.decisions.empty()) inputs.push_back({"--decisions", s.review.decisions});
+  if (!sample && !s.ranges.path.empty()) inputs.push_back({"--ranges", s.ranges.path});
   refuse_unsafe_outputs(outputs, inputs);
 }
 

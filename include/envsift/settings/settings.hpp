@@ -64,6 +64,14 @@ struct ElevationSettings {
   double tolerance_m = 100;
 };
 
+// Taxa's published ranges (read/range_layer.hpp, detect/range_check.hpp).
+struct RangeSettings {
+  std::string path;                           // the range layer; empty: no check
+  std::string taxon_field = "scientificName";
+  std::string filter;                         // OGR SQL WHERE clause on its features
+  double tolerance_km = 100;                  // flag records farther than this outside the range
+};
+
 struct OutputSettings {
   std::string out;                // the record table (CSV)
   std::string summary;            // per-taxon summary CSV
@@ -89,6 +97,7 @@ struct ScreenSettings {
   SamplingSettings sampling;
   TestSettings tests;
   ElevationSettings elevation;
+  RangeSettings ranges;
   OutputSettings outputs;
   ReviewSettings review;
   std::string command_line;     // how the run was invoked, for the manifest

@@ -1,0 +1,145 @@
+#include "envsift/detect/range_check.hpp"
+
+#include <cmath>
+#include <cstdio>
+#include <exception>
+#include <map>
+#include <memory>
+
+#include "envsift/detect/test_registry.hpp"
+#include "envsift/errors.hpp"
+#include "envsift/read/range_layer.hpp"
+#include "envsift/read/taxon_names.hpp"
+#include "envsift/reason_codes.hpp"
+#include "envsift/record_table.hpp"
+
+namespace envsift {
+
+Finding judge_range_distance(double outside_m, double radius_m, double tolerance_km, const std::string& taxon) {
+  Finding f;
+  f.tested = true;
+  const double beyond_km = std::max(0.0, outside_m - radius_m) / 1000;
+  f.statistic = beyond_km;
+  f.threshold = tolerance_km;
+  f.severity = beyond_km / tolerance_km;
+  f.flagged = beyond_km > tolerance_km;
+  if (f.flagged) {
+    char words[512];
+    if (radius_m >= 500)  // a disc of a few metres is not worth the words
+      std::snprintf(words, sizeof words, "%.0f km outside the range of %s, beyond its %.0f km uncertainty", beyond_km,
+                    taxon.c_str(), radius_m / 1000);
+    else
+      std::snprintf(words, sizeof words, "%.0f km outside the range of %s", beyond_km, taxon.c_str());
+    f.reasons.push_back(words);
+  }
+  return f;
+}
+
+namespace {
+
+RangeSource source_of(const RangeSettings& s) { return {s.path, s.taxon_field, s.filter}; }
+
+}  // namespace
+
+void RangeCheck::prepare(RecordTable& t) {
+  table_ = &t;
+  const std::size_t n = t.size();
+  outside_m_.assign(n, NAN);
+  radius_m_.assign(n, 0);
+  has_range_.assign(n, 0);
+  RangeLayer index(source_of(settings_));
+  t.warnings.insert(t.warnings.end(), index.notes().begin(), index.notes().end());
+  const auto& taxa = t.points.taxa;
+  std::vector<std::vector<std::size_t>> records_of(taxa.size());
+  for (std::size_t i = 0; i < n; ++i) records_of[t.points.records[i].taxon].push_back(i);
+  // names that look like a range's but are not the same: said, never matched silently
+  std::map<std::string, std::string> range_by_likeness;
+  for (const auto& name : index.taxa()) range_by_likeness.emplace(taxon_likeness_key(name), name);
+  std::vector<std::uint32_t> with_range;
+  for (std::uint32_t k = 1; k < taxa.size(); ++k) {
+    if (index.has(taxa[k])) {
+      with_range.push_back(k);
+      continue;
+    }
+    const auto alike = range_by_likeness.find(taxon_likeness_key(taxa[k]));
+    if (alike != range_by_likeness.end())
+      t.warnings.push_back("--ranges " + settings_.path + ": no range for taxon '" + taxa[k] + "', but the range layer has '" +
+                           alike->second + "', which looks like it; make the names match to check its records");
+  }
+  // each taxon's range read once, its records measured, the range freed: one range per thread in memory
+  std::vector<std::size_t> skipped(with_range.size(), 0);
+  std::vector<std::exception_ptr> errors(with_range.size());
+#pragma omp parallel
+  {
+    std::unique_ptr<RangeLayer> mine;
+#pragma omp for schedule(dynamic, 1)
+    for (std::ptrdiff_t w = 0; w < static_cast<std::ptrdiff_t>(with_range.size()); ++w) {
+      const auto k = static_cast<std::size_t>(w);
+      try {
+        if (!mine) mine = std::make_unique<RangeLayer>(source_of(settings_));  // GDAL handles are per thread
+        const auto range = mine->load(taxa[with_range[k]]);
+        skipped[k] = range->skipped;
+        if (range->vertices() == 0) continue;  // only features without polygons: no range
+        for (std::size_t i : records_of[with_range[k]]) {
+          has_range_[i] = 1;
+          const Occurrence& r = t.points.records[i];
+          if (!r.has_coordinates()) continue;
+          outside_m_[i] = static_cast<float>(range->distance_m(r.longitude, r.latitude));
+          if (t.has_discs) radius_m_[i] = static_cast<float>(t.radius_m[i]);
+        }
+      } catch (...) {
+        errors[k] = std::current_exception();
+      }
+    }
+  }
+  for (std::size_t k = 0; k < with_range.size(); ++k) {
+    if (errors[k]) std::rethrow_exception(errors[k]);  // the first taxon's, whatever the threads
+    if (skipped[k])
+      t.warnings.push_back("--ranges " + settings_.path + ": " + std::to_string(skipped[k]) + " feature(s) of taxon '" +
+                           taxa[with_range[k]] + "' hold no polygon (a point, a line or no geometry) and are not used");
+  }
+}
+
+Finding RangeCheck::judge(std::size_t i) const {
+  Finding f;
+  if (!has_range_[i]) {
+    if (table_->points.records[i].taxon != 0) f.untested_code = reason::no_range;
+    return f;
+  }
+  if (std::isnan(outside_m_[i])) return f;  // no coordinates: their own codes say so
+  return judge_range_distance(outside_m_[i], radius_m_[i], settings_.tolerance_km, table_->points.taxon(i));
+}
+
+TestEntry range_check_entry() {
+  TestEntry e;
+  e.name = RangeCheck::kName;
+  e.options.push_back(text_option("ranges", "FILE",
+                                  "taxa's published ranges: an OGR polygon layer (GeoPackage, Shapefile, GeoJSON; any "
+                                  "CRS) with a taxon field; flag records farther than --range-tolerance outside their "
+                                  "taxon's range (outside_range)",
+                                  [](ScreenSettings& s) -> std::string& { return s.ranges.path; }));
+  e.options.push_back(text_option("range-taxon-field", "NAME", "the range layer's field naming the taxon",
+                                  [](ScreenSettings& s) -> std::string& { return s.ranges.taxon_field; }));
+  e.options.push_back(text_option("range-filter", "SQL",
+                                  "use only the range features this OGR SQL WHERE clause selects, e.g. "
+                                  "\"seasonal IN (1, 2)\" for resident and breeding parts",
+                                  [](ScreenSettings& s) -> std::string& { return s.ranges.filter; }));
+  e.options.push_back(real_option("range-tolerance", "KM",
+                                  "flag only records more than KM kilometres outside their taxon's range, beyond their "
+                                  "uncertainty (range maps hold only at grains of about 1-2 degrees)",
+                                  [](ScreenSettings& s) -> double& { return s.ranges.tolerance_km; }, above(0)));
+  e.describe = [](const ScreenSettings& s) {
+    char tolerance[32];
+    std::snprintf(tolerance, sizeof tolerance, "%.0f", s.ranges.tolerance_km);
+    return std::string(RangeCheck::kName) + ": the record lies more than " + tolerance + " km outside its taxon's range in " +
+           s.ranges.path + " (great-circle distance from its uncertainty disc)";
+  };
+  e.make_check = [](const ScreenSettings& s) -> std::unique_ptr<RecordCheck> { return std::make_unique<RangeCheck>(s.ranges); };
+  e.wanted_check = [](const ScreenSettings& s) { return !s.ranges.path.empty(); };
+  e.validate = [](const ScreenSettings& s) {
+    if (!s.ranges.path.empty()) RangeLayer{source_of(s.ranges)};  // a layer that cannot be used stops the run now
+  };
+  return e;
+}
+
+}  // namespace envsift
