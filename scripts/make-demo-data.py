@@ -15,7 +15,9 @@ rises on the windward (west) slope and drops in the lee.
 
 Taxa: Orophila nivicola (montane), Campestra humilis (moist lowland), Errantia vulgaris (generalist),
 Petricola rara (a handful of records: too few to judge). Planted errors are listed in
-demo-points/truth.csv. Deterministic: same script, same bytes.
+demo-points/truth.csv. Their published ranges (demo-points/ranges.geojson, for --ranges) are drawn
+as an atlas would: the 0.1-degree grid cells where each taxon is expected, merged into polygons.
+Deterministic: same script, same bytes.
 
 usage: scripts/make-demo-data.py [OUTPUT_ROOT]   (default: the project root)
 needs: scripts/install-deps --reference-tools (Debian python3-gdal, python3-numpy)
@@ -26,7 +28,7 @@ import os
 import sys
 
 import numpy as np
-from osgeo import gdal, osr
+from osgeo import gdal, ogr, osr
 
 gdal.UseExceptions()
 ROOT = sys.argv[1] if len(sys.argv) > 1 else os.path.dirname(os.path.dirname(os.path.abspath(__file__)))
@@ -236,7 +238,51 @@ def make_points():
         w.writerows(truth)
 
 
+def make_ranges():
+    """Atlas-style ranges: 0.1-degree cells over the island, kept where the taxon is expected
+    (judged at the cell's centre, as an atlas compiler would), merged into (multi)polygons."""
+    expected = [
+        ("Campestra humilis", lambda z, r: z < 450 and 650 < r < 1350),
+        ("Errantia vulgaris", lambda z, r: True),
+        ("Orophila nivicola", lambda z, r: z > 1300),  # the ridge and the massif: two parts
+        ("Petricola rara", lambda z, r: 1150 < z < 1850),
+    ]
+    os.makedirs(POINTS, exist_ok=True)
+    path = os.path.join(POINTS, "ranges.geojson")
+    if os.path.exists(path):
+        os.remove(path)
+    wgs = osr.SpatialReference()
+    wgs.ImportFromEPSG(4326)
+    ds = ogr.GetDriverByName("GeoJSON").CreateDataSource(path)
+    layer = ds.CreateLayer("ranges", wgs, ogr.wkbMultiPolygon, ["COORDINATE_PRECISION=4", "RFC7946=NO"])
+    layer.CreateField(ogr.FieldDefn("scientificName", ogr.OFTString))
+    layer.CreateField(ogr.FieldDefn("source", ogr.OFTString))
+    step = 0.1
+    for taxon, keep in expected:
+        cells = ogr.Geometry(ogr.wkbMultiPolygon)
+        for i in range(20):
+            for j in range(20):
+                west, south = -1.0 + i * step, -1.0 + j * step
+                lon, lat = west + step / 2, south + step / 2
+                if not keep(float(elevation(lon, lat)), float(rainfall(lon, lat))):
+                    continue
+                ring = ogr.Geometry(ogr.wkbLinearRing)
+                for x, y in ((west, south), (west + step, south), (west + step, south + step), (west, south + step),
+                             (west, south)):
+                    ring.AddPoint_2D(round(x, 4), round(y, 4))
+                cell = ogr.Geometry(ogr.wkbPolygon)
+                cell.AddGeometry(ring)
+                cells.AddGeometry(cell)
+        feature = ogr.Feature(layer.GetLayerDefn())
+        feature.SetField("scientificName", taxon)
+        feature.SetField("source", "invented atlas, 0.1-degree cells")
+        feature.SetGeometry(ogr.ForceToMultiPolygon(cells.UnionCascaded()))
+        layer.CreateFeature(feature)
+    ds = None
+
+
 if __name__ == "__main__":
     make_rasters()
     make_points()
+    make_ranges()
     print("demo data written to %s and %s" % (RASTERS, POINTS))
