@@ -3,6 +3,8 @@
 //
 //   envsift_bench layers DIR COUNT WIDTH HEIGHT [W S E N]  float32 GeoTIFFs, tiled, DEFLATE (default: the globe)
 //   envsift_bench points FILE N TAXA SEED [W S E N]        clustered occurrences in Darwin Core columns
+//   envsift_bench ranges FILE TAXA SEED VERTICES BIG BIG_VERTICES [W S E N]
+//                                                   a GeoPackage of the range polygons of those taxa
 //   envsift_bench discs LAYER POINTS N RADIUS_M...  seconds per record to sample discs of each radius
 //   envsift_bench terrain DIR                       a second invented terrain for `envsift evaluate`
 //                                                   (scripts/evaluate-defaults): elevation, temperature,
@@ -23,6 +25,7 @@
 
 #include <gdal_priv.h>
 #include <ogr_spatialref.h>
+#include <ogrsf_frmts.h>
 
 #include "envsift/sample/raster_stack.hpp"
 
@@ -102,6 +105,48 @@ void make_points(const std::string& file, long n, int taxa, unsigned seed, const
     out << "B" << i << ",Taxon " << t << "," << std::clamp(c.first + mx * spread(rng), e.west, e.east) << ","
         << std::clamp(c.second + my * spread(rng), e.south, e.north) << ",1000\n";
   }
+}
+
+// Range polygons for the taxa of make_points (same seed, same extent: the same centres): per
+// taxon one feature of three parts, a star-shaped wiggly outline around each centre, with
+// `vertices` vertices per part, and `big_vertices` for the first `big` taxa (the common ones).
+void make_ranges(const std::string& file, int taxa, unsigned seed, int vertices, int big, int big_vertices, const Extent& e) {
+  std::mt19937_64 rng(seed);
+  const double mx = (e.east - e.west) * 0.03, my = (e.north - e.south) * 0.03;
+  std::uniform_real_distribution<double> lon(e.west + mx, e.east - mx), lat(std::max(e.south + my, -60.0),
+                                                                              std::min(e.north - my, 70.0));
+  std::vector<std::vector<std::pair<double, double>>> centres(static_cast<std::size_t>(taxa));
+  for (auto& c : centres)
+    for (int k = 0; k < 3; ++k) c.emplace_back(lon(rng), lat(rng));
+  GDALAllRegister();
+  GDALDriver* driver = GetGDALDriverManager()->GetDriverByName("GPKG");
+  GDALDataset* ds = driver->Create(file.c_str(), 0, 0, 0, GDT_Unknown, nullptr);
+  OGRSpatialReference wgs84;
+  wgs84.SetWellKnownGeogCS("WGS84");
+  OGRLayer* layer = ds->CreateLayer("ranges", &wgs84, wkbMultiPolygon, nullptr);
+  OGRFieldDefn name("scientificName", OFTString);
+  layer->CreateField(&name);
+  if (layer->StartTransaction() != OGRERR_NONE) fail("cannot write " + file);
+  for (int t = 0; t < taxa; ++t) {
+    const int n = t < big ? big_vertices : vertices;
+    OGRMultiPolygon parts;
+    for (const auto& [cx, cy] : centres[static_cast<std::size_t>(t)]) {
+      OGRLinearRing ring;
+      for (int k = 0; k <= n; ++k) {
+        const double a = 2 * M_PI * (k % n) / n, r = 2.5 * (1 + 0.3 * std::sin(7 * a) + 0.05 * std::sin(97 * a));
+        ring.addPoint(std::clamp(cx + r * mx * std::cos(a), -180.0, 180.0), std::clamp(cy + r * my * std::sin(a), -90.0, 90.0));
+      }
+      OGRPolygon polygon;
+      polygon.addRing(&ring);
+      parts.addGeometry(&polygon);
+    }
+    OGRFeature feature(layer->GetLayerDefn());
+    feature.SetField("scientificName", ("Taxon " + std::to_string(t)).c_str());
+    feature.SetGeometry(&parts);
+    if (layer->CreateFeature(&feature) != OGRERR_NONE) fail("cannot write " + file);
+  }
+  if (layer->CommitTransaction() != OGRERR_NONE) fail("cannot write " + file);
+  GDALClose(ds);
 }
 
 double seconds_since(std::chrono::steady_clock::time_point t) {
@@ -242,6 +287,9 @@ int main(int argc, char** argv) {
     make_layers(argv[2], std::atoi(argv[3]), std::atoi(argv[4]), std::atoi(argv[5]), extent_from(argc, argv, 6));
   else if (what == "terrain" && argc >= 3)
     make_terrain(argv[2]);
+  else if (what == "ranges" && argc >= 8)
+    make_ranges(argv[2], std::atoi(argv[3]), static_cast<unsigned>(std::atoi(argv[4])), std::atoi(argv[5]), std::atoi(argv[6]),
+                std::atoi(argv[7]), extent_from(argc, argv, 8));
   else if (what == "points" && argc >= 6)
     make_points(argv[2], std::atol(argv[3]), std::atoi(argv[4]), static_cast<unsigned>(std::atoi(argv[5])),
                 extent_from(argc, argv, 6));

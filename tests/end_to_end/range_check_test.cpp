@@ -8,7 +8,7 @@
 // the counts and the distance; the output is the same for any thread count.
 #include <gtest/gtest.h>
 
-#include "../support.hpp"
+#include "../report_support.hpp"
 
 namespace envsift {
 namespace {
@@ -28,7 +28,8 @@ std::map<std::string, std::vector<std::string>> by_id(const Table& t) {
 
 TEST(RangeCheck, ARecordOffEveryLayerIsJudgedByItsRangeAndRankedHigh) {
   const auto dir = temp_dir("range-demo");
-  const auto r = run(demo_screen(" --out " + dir + "/out.csv --summary " + dir + "/taxa.csv --gis " + dir + "/out.gpkg"));
+  const auto r = run(demo_screen(" --out " + dir + "/out.csv --summary " + dir + "/taxa.csv --gis " + dir +
+                                 "/out.gpkg --report " + dir + "/report.html"));
   ASSERT_EQ(r.exit_code, 0) << r.output;
   const Table out = read_csv(dir + "/out.csv");
   auto rows = by_id(out);
@@ -54,6 +55,17 @@ TEST(RangeCheck, ARecordOffEveryLayerIsJudgedByItsRangeAndRankedHigh) {
   // the GeoPackage has the distance, as GDAL reads it
   const auto info = run("ogrinfo -q -where \"occurrenceID = 'QM-0914'\" " + dir + "/out.gpkg records");
   EXPECT_NE(info.output.find("outside_range_stat"), std::string::npos) << info.output;
+  // the report's map of the taxon draws its range, and the record off every layer on it
+  std::size_t maps = 0;
+  for (const auto& section : report_sections(read_file(dir + "/report.html"), dir)) {
+    const std::string& map = section.pictures.at(0);
+    EXPECT_NE(map.find("<title>published range</title>"), std::string::npos) << section.taxon;
+    if (section.taxon == "Errantia vulgaris") {
+      EXPECT_NE(mark_of(map, "QM-0914").find("href=\"#suspect\""), std::string::npos);
+    }
+    ++maps;
+  }
+  EXPECT_EQ(maps, 4u);
 }
 
 TEST(RangeCheck, SameOutputForAnyThreadCount) {

@@ -11,6 +11,7 @@
 #include <mutex>
 
 #include "envsift/detect/per_layer_detector.hpp"
+#include "envsift/read/range_layer.hpp"
 #include "envsift/write/output_registry.hpp"
 #include "envsift/write/report/html_report.hpp"
 #include "envsift/write/run_manifest.hpp"
@@ -81,6 +82,7 @@ class ReportOutput : public RecordSink {
   }
 
   void record(const RecordOutcome& o) override {
+    keep_if_off_every_layer(o);
     if (o.rank == 0 || o.rank > kTopSuspects || !o.verdict->for_review()) return;
     const Verdict& v = *o.verdict;
     ReportSuspect s{o.rank, label(o.record, o.fields), taxon_name(o.record), format_score(*v.score), flags_text(v),
@@ -143,6 +145,28 @@ class ReportOutput : public RecordSink {
   }
   TaxonPicture picture(const JudgedTaxon& taxon, const std::vector<Verdict>& verdicts) const;
   void draw_kept();
+  // A suspect (or decided record) with no value on any layer is in no taxon's statistics, but a
+  // check of its coordinates alone (the range) may judge it: it is kept for its taxon's map.
+  void keep_if_off_every_layer(const RecordOutcome& o) {
+    const Verdict& v = *o.verdict;
+    if (!v.for_review() && v.decision == Decision::none) return;
+    const RecordTable& t = run_->table;
+    const auto row = static_cast<Eigen::Index>(o.record);
+    for (Eigen::Index l = 0; l < static_cast<Eigen::Index>(t.layers.size()); ++l)
+      if (std::isfinite(t.values(row, l))) return;
+    PlotRecord r;
+    r.suspect = v.for_review();
+    r.decision = v.decision;
+    r.note = v.decision_note;
+    r.label = label(o.record, o.fields);
+    r.longitude = t.points.records[o.record].longitude;
+    r.latitude = t.points.records[o.record].latitude;
+    r.score = v.score.value_or(0);
+    r.reasons = v.set_aside.empty() ? reasons_text(v) : "set aside: " + v.set_aside;
+    r.value.assign(t.layers.size(), NAN), r.low = r.value, r.high = r.value;
+    off_layers_[taxon_name(o.record)].push_back(std::move(r));
+  }
+  std::map<std::string, std::vector<PlotRecord>> off_layers_;  // taxon → its marked records off every layer
 
   using Key = std::pair<double, std::size_t>;  // (−worst score, taxon index)
   struct Kept {
@@ -168,13 +192,24 @@ void ReportOutput::draw_kept() {
   std::sort(taxa.begin(), taxa.end(), [](const Kept* a, const Kept* b) { return a->taxon.index < b->taxon.index; });
   std::vector<std::string> sections(taxa.size());
   std::vector<std::exception_ptr> errors(taxa.size());
-#pragma omp parallel for schedule(dynamic, 1)
-  for (std::ptrdiff_t k = 0; k < static_cast<std::ptrdiff_t>(taxa.size()); ++k) {
-    const Kept& t = *taxa[static_cast<std::size_t>(k)];
-    try {
-      sections[static_cast<std::size_t>(k)] = report_->section(t.taxon.index, picture(t.taxon, t.verdicts), t.judged);
-    } catch (...) {
-      errors[static_cast<std::size_t>(k)] = std::current_exception();
+  const RangeSource ranges{run_->settings.ranges.path, run_->settings.ranges.taxon_field, run_->settings.ranges.filter};
+#pragma omp parallel
+  {
+    std::unique_ptr<RangeLayer> layer;  // GDAL handles are per thread
+#pragma omp for schedule(dynamic, 1)
+    for (std::ptrdiff_t k = 0; k < static_cast<std::ptrdiff_t>(taxa.size()); ++k) {
+      const Kept& t = *taxa[static_cast<std::size_t>(k)];
+      try {
+        TaxonPicture p = picture(t.taxon, t.verdicts);
+        if (!ranges.path.empty()) {
+          if (!layer) layer = std::make_unique<RangeLayer>(ranges);
+          const auto box = map_box(p);
+          if (const auto range = layer->load(t.taxon.taxon); range && box) p.range = rings_for_map(range->rings(), *box);
+        }
+        sections[static_cast<std::size_t>(k)] = report_->section(t.taxon.index, p, t.judged);
+      } catch (...) {
+        errors[static_cast<std::size_t>(k)] = std::current_exception();
+      }
     }
   }
   for (std::size_t k = 0; k < taxa.size(); ++k) {
@@ -229,6 +264,8 @@ TaxonPicture ReportOutput::picture(const JudgedTaxon& taxon, const std::vector<V
     }
     p.records.push_back(std::move(r));
   }
+  if (const auto off = off_layers_.find(taxon.taxon); off != off_layers_.end())
+    p.records.insert(p.records.end(), off->second.begin(), off->second.end());
   // open suspects first, then decided records, worst first, so that the labelled ones are the worst
   auto order = [](const PlotRecord& r) { return r.suspect ? 0 : r.marked() ? 1 : 2; };
   std::stable_sort(p.records.begin(), p.records.end(), [&](const PlotRecord& a, const PlotRecord& b) {

@@ -258,10 +258,36 @@ std::optional<MapBox> map_box(const TaxonPicture& t) {
   return box;
 }
 
+std::vector<std::vector<LonLat>> rings_for_map(const std::vector<std::vector<LonLat>>& rings, const MapBox& box) {
+  const double span = std::max(box.east - box.west, box.north - box.south);
+  const double step = span / 100, margin = span / 20, pixel = span / 800;
+  std::vector<std::vector<LonLat>> out;
+  for (const auto& ring : rings) {
+    std::vector<LonLat> fitted;
+    auto add = [&](double lon, double lat) {
+      lon = std::clamp(lon, box.west - margin, box.east + margin);
+      lat = std::clamp(lat, box.south - margin, box.north + margin);
+      if (fitted.empty() || std::fabs(lon - fitted.back().lon) > pixel || std::fabs(lat - fitted.back().lat) > pixel)
+        fitted.push_back({lon, lat});
+    };
+    for (std::size_t k = 0; k < ring.size(); ++k) {
+      const LonLat p = ring[k], q = ring[(k + 1) % ring.size()];
+      const int pieces = std::clamp(static_cast<int>(std::ceil(std::max(std::fabs(q.lon - p.lon), std::fabs(q.lat - p.lat)) / step)), 1, 100000);
+      for (int s = 0; s < pieces; ++s) {
+        const double f = static_cast<double>(s) / pieces;
+        add(p.lon + f * (q.lon - p.lon), p.lat + f * (q.lat - p.lat));
+      }
+    }
+    if (fitted.size() >= 3) out.push_back(std::move(fitted));
+  }
+  return out;
+}
+
 std::string map_plot(const TaxonPicture& t, const MapBox& box, const std::string& relief_png) {
   svg::Plot plot(box.width + 62 + 16, box.height + 40 + 46, "Records of " + t.taxon);
   auto legend = marks_legend(t);
   legend.insert(legend.begin(), {svg::legend_dot(svg::colour::points), "record"});
+  if (!t.range.empty()) legend.emplace_back(svg::legend_line(svg::colour::range, ""), "published range");
   if (!relief_png.empty()) legend.emplace_back(svg::legend_box("#999"), "shaded relief (DEM)");
   plot.legend(legend);
   plot.x_range(box.west, box.east, 0);
@@ -270,6 +296,20 @@ std::string map_plot(const TaxonPicture& t, const MapBox& box, const std::string
     plot.raw("<image x=\"" + svg::number(plot.left()) + "\" y=\"" + svg::number(plot.top()) + "\" width=\"" +
              std::to_string(box.width) + "\" height=\"" + std::to_string(box.height) +
              "\" preserveAspectRatio=\"none\" opacity=\"0.75\" href=\"" + svg::data_uri("image/png", relief_png) + "\"/>");
+  if (!t.range.empty()) {  // clipped to the map area
+    std::string d;
+    for (const auto& ring : t.range) {
+      for (std::size_t k = 0; k < ring.size(); ++k)
+        d += (k ? " L" : " M") + svg::number(std::round(plot.x()(ring[k].lon) * 2) / 2) + " " +
+             svg::number(std::round(plot.y()(ring[k].lat) * 2) / 2);
+      d += " Z";
+    }
+    plot.raw("<clipPath id=\"map-area\"><rect x=\"" + svg::number(plot.left()) + "\" y=\"" + svg::number(plot.top()) +
+             "\" width=\"" + std::to_string(box.width) + "\" height=\"" + std::to_string(box.height) +
+             "\"/></clipPath><path clip-path=\"url(#map-area)\" fill-rule=\"evenodd\" fill=\"" + svg::colour::range +
+             "\" fill-opacity=\"0.08\" stroke=\"" + svg::colour::range + "\" stroke-width=\"1.8\" d=\"" + d.substr(1) +
+             "\"><title>published range</title></path>");
+  }
   std::vector<std::pair<double, double>> pixels;
   for (const auto& r : t.records)
     if (!r.marked() && std::isfinite(r.longitude)) pixels.emplace_back(plot.x()(r.longitude), plot.y()(r.latitude));

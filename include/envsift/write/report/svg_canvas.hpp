@@ -17,6 +17,7 @@ constexpr const char* error = "#D55E00";      // vermillion, over a black outlin
 // one-layer tests' cutoffs, one per style slot: blue, vermillion, reddish purple, black
 constexpr const char* cutoff[] = {"#0072B2", "#D55E00", "#CC79A7", "#000000"};
 constexpr const char* ellipse = "#009E73";    // bluish green
+constexpr const char* range = "#0072B2";      // blue: a taxon's published range on its map (solid outline)
 constexpr const char* points = "#4D4D4D";     // dark grey
 constexpr const char* bars = "#BDBDBD";       // light grey
 }  // namespace colour

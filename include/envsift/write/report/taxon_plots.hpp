@@ -16,6 +16,7 @@
 
 #include <Eigen/Core>
 
+#include "envsift/detect/range_distance.hpp"
 #include "envsift/review/decision.hpp"
 #include "envsift/write/report/svg_canvas.hpp"
 
@@ -67,6 +68,7 @@ struct TaxonPicture {
   std::vector<PlotRecord> records; // every record of the taxon; suspects first, then decided, worst first
   bool two_populations = false;    // judged as two populations (group/populations.hpp)
   std::vector<std::string> withheld_tests;  // tests whose flags the population guard withheld here
+  std::vector<std::vector<LonLat>> range;   // its published range (--ranges), fitted to its map; empty: none
 };
 
 std::string distribution_plot(const TaxonPicture& taxon, std::size_t layer);
@@ -90,7 +92,12 @@ struct MapBox {
 // The extent of the taxon's records with a margin, and a pixel size that keeps distances true
 // at its middle latitude; nothing when no record has coordinates.
 std::optional<MapBox> map_box(const TaxonPicture& taxon);
-// `relief_png`: a PNG (raw bytes) covering `box` exactly, or empty.
+// A range's rings as the map needs them: edges densified, points far outside the box pulled to
+// its margin, and points closer than a pixel dropped, so a continental range with hundreds of
+// thousands of vertices draws as a few thousand.
+std::vector<std::vector<LonLat>> rings_for_map(const std::vector<std::vector<LonLat>>& rings, const MapBox& box);
+// `relief_png`: a PNG (raw bytes) covering `box` exactly, or empty. The range, if any, is drawn
+// as a blue outline with a faint fill.
 std::string map_plot(const TaxonPicture& taxon, const MapBox& box, const std::string& relief_png);
 
 }  // namespace envsift
