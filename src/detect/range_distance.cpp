@@ -3,16 +3,33 @@
 #include <algorithm>
 #include <cmath>
 #include <limits>
-#include <numeric>
 
 #include <Eigen/Geometry>
+
+#include "envsift/sample/great_circle.hpp"
 
 namespace envsift {
 namespace {
 
 constexpr double kDegree = M_PI / 180;
-constexpr double kPieceDeg = 0.05;   // densification step of an edge, in degrees of longitude or latitude
+constexpr double kMaxPieceDeg = 2;        // pieces of an edge span at most this (the bound below holds)
+constexpr double kMaxGapM = 0.8;          // and lie within this of the drawn line (a metre, with room)
 constexpr std::uint32_t kLeafArcs = 8;
+
+// How many great-circle pieces keep within kMaxGapM of the edge drawn straight in
+// longitude/latitude. On the sphere (ds² = cos²φ dλ² + dφ²) the drawn line λ = λ0 + tΔλ,
+// φ = φ0 + tΔφ is a geodesic but for its covariant acceleration (from the Christoffel symbols
+// Γ^φ_λλ = sin φ cos φ, Γ^λ_λφ = −tan φ), of size |sin φ| |Δλ| √(4Δφ² + cos²φ Δλ²); a curve with
+// acceleration a over t in [0, 1] leaves the geodesic through its ends by about a/8. So n pieces
+// suffice when s |Δλ| √(4Δφ² + Δλ²) / (8 n²) ≤ gap, s the largest |sin φ| on the edge: meridians
+// and the equator need one.
+int pieces_of(const LonLat& p, const LonLat& q) {
+  const double span_deg = std::max(std::fabs(q.lon - p.lon), std::fabs(q.lat - p.lat));
+  const double s = std::sin(std::max(std::fabs(p.lat), std::fabs(q.lat)) * kDegree);
+  const double dlambda = std::fabs(q.lon - p.lon) * kDegree, dphi = std::fabs(q.lat - p.lat) * kDegree;
+  const double by_gap = std::sqrt(s * dlambda * std::sqrt(4 * dphi * dphi + dlambda * dlambda) / (8 * kMaxGapM / kEarthRadiusM));
+  return std::max({1, static_cast<int>(std::ceil(by_gap)), static_cast<int>(std::ceil(span_deg / kMaxPieceDeg))});
+}
 
 }  // namespace
 
@@ -38,8 +55,7 @@ RangeEdges::RangeEdges(const std::vector<std::vector<LonLat>>& rings) {
       const LonLat p = ring[k], q = ring[(k + 1) % n];
       if (p.lon == q.lon && p.lat == q.lat) continue;  // a repeated vertex (or the closing one)
       if (std::fabs(p.lat) >= 90 && p.lat == q.lat) continue;  // along a pole: a point, not an edge
-      const double span = std::max(std::fabs(q.lon - p.lon), std::fabs(q.lat - p.lat));
-      const int pieces = std::max(1, static_cast<int>(std::ceil(span / kPieceDeg)));
+      const int pieces = pieces_of(p, q);
       Eigen::Vector3d from = unit_vector(p.lon, p.lat);
       for (int s = 1; s <= pieces; ++s) {
         const double t = static_cast<double>(s) / pieces;
@@ -56,47 +72,62 @@ RangeEdges::RangeEdges(const std::vector<std::vector<LonLat>>& rings) {
     half_.push_back(angle_between(s.a, s.b) / 2);
   }
   if (arcs_.empty()) return;
-  // build over an order of the arcs, then store the arcs in that order
-  std::vector<std::uint32_t> order(arcs_.size());
-  std::iota(order.begin(), order.end(), 0u);
-  struct Builder {
-    RangeEdges& e;
-    std::vector<std::uint32_t>& order;
-    std::int32_t operator()(std::uint32_t first, std::uint32_t count) {
-      Cap cap;
-      Eigen::Vector3d sum = Eigen::Vector3d::Zero();
-      for (std::uint32_t k = first; k < first + count; ++k) sum += e.middle_[order[k]];
-      cap.centre = sum.norm() > 1e-12 ? Eigen::Vector3d(sum.normalized()) : e.middle_[order[first]];
-      for (std::uint32_t k = first; k < first + count; ++k)  // a point of an arc is within half its length of its middle
-        cap.radius = std::max(cap.radius, angle_between(cap.centre, e.middle_[order[k]]) + e.half_[order[k]]);
-      cap.first = first, cap.count = count;
-      const auto at = static_cast<std::int32_t>(e.caps_.size());
-      e.caps_.push_back(cap);
-      if (count <= kLeafArcs) return at;
-      Eigen::Vector3d low = Eigen::Vector3d::Constant(2), high = Eigen::Vector3d::Constant(-2);
-      for (std::uint32_t k = first; k < first + count; ++k)
-        low = low.cwiseMin(e.middle_[order[k]]), high = high.cwiseMax(e.middle_[order[k]]);
-      Eigen::Index axis;
-      (high - low).maxCoeff(&axis);
-      const std::uint32_t half = count / 2;
-      std::nth_element(order.begin() + first, order.begin() + first + half, order.begin() + first + count,
-                       [&](std::uint32_t a, std::uint32_t b) {
-                         const double x = e.middle_[a][axis], y = e.middle_[b][axis];
-                         return x != y ? x < y : a < b;  // a total order: the same tree on every machine
-                       });
-      const std::int32_t left = (*this)(first, half);
-      const std::int32_t right = (*this)(first + half, count - half);
-      e.caps_[static_cast<std::size_t>(at)].left = left;
-      e.caps_[static_cast<std::size_t>(at)].right = right;
-      return at;
-    }
+  // Arcs in the order of their middles along a Z-order (Morton) curve of the unit cube, so that
+  // neighbours in the order are neighbours on the sphere; then caps bottom-up: runs of
+  // kLeafArcs arcs, then pairs of caps. One sort and O(n) work.
+  auto spread = [](std::uint64_t v) {  // 21 bits to every third of 63
+    v &= 0x1fffff;
+    v = (v | v << 32) & 0x1f00000000ffffull;
+    v = (v | v << 16) & 0x1f0000ff0000ffull;
+    v = (v | v << 8) & 0x100f00f00f00f00full;
+    v = (v | v << 4) & 0x10c30c30c30c30c3ull;
+    v = (v | v << 2) & 0x1249249249249249ull;
+    return v;
   };
-  Builder{*this, order}(0, static_cast<std::uint32_t>(arcs_.size()));
+  std::vector<std::pair<std::uint64_t, std::uint32_t>> keyed(arcs_.size());
+  for (std::size_t k = 0; k < arcs_.size(); ++k) {
+    const Eigen::Vector3d q = (middle_[k].array() + 1) * 0.5 * 2097151.0;
+    keyed[k] = {spread(static_cast<std::uint64_t>(q.x())) | spread(static_cast<std::uint64_t>(q.y())) << 1 |
+                    spread(static_cast<std::uint64_t>(q.z())) << 2,
+                static_cast<std::uint32_t>(k)};
+  }
+  std::sort(keyed.begin(), keyed.end());  // ties by index: the same order on every machine
   std::vector<Arc> arcs;
   std::vector<Eigen::Vector3d> middle;
   std::vector<double> half;
-  for (std::uint32_t k : order) arcs.push_back(arcs_[k]), middle.push_back(middle_[k]), half.push_back(half_[k]);
+  for (const auto& [key, k] : keyed) arcs.push_back(arcs_[k]), middle.push_back(middle_[k]), half.push_back(half_[k]);
   arcs_.swap(arcs), middle_.swap(middle), half_.swap(half);
+  std::vector<std::int32_t> level;
+  for (std::uint32_t first = 0; first < arcs_.size(); first += kLeafArcs) {
+    Cap cap;
+    cap.first = first;
+    cap.count = std::min<std::uint32_t>(kLeafArcs, static_cast<std::uint32_t>(arcs_.size()) - first);
+    Eigen::Vector3d sum = Eigen::Vector3d::Zero();
+    for (std::uint32_t k = first; k < first + cap.count; ++k) sum += middle_[k];
+    cap.centre = sum.norm() > 1e-12 ? Eigen::Vector3d(sum.normalized()) : middle_[first];
+    for (std::uint32_t k = first; k < first + cap.count; ++k)  // a point of an arc is within half its length of its middle
+      cap.radius = std::max(cap.radius, angle_between(cap.centre, middle_[k]) + half_[k]);
+    level.push_back(static_cast<std::int32_t>(caps_.size()));
+    caps_.push_back(cap);
+  }
+  while (level.size() > 1) {
+    std::vector<std::int32_t> up;
+    for (std::size_t k = 0; k + 1 < level.size(); k += 2) {
+      const Cap a = caps_[static_cast<std::size_t>(level[k])], b = caps_[static_cast<std::size_t>(level[k + 1])];
+      Cap cap;
+      cap.first = a.first, cap.count = a.count + b.count;
+      cap.left = level[k], cap.right = level[k + 1];
+      const Eigen::Vector3d sum = a.centre * a.count + b.centre * b.count;
+      cap.centre = sum.norm() > 1e-12 ? Eigen::Vector3d(sum.normalized()) : a.centre;
+      for (const Cap* child : {&a, &b})  // holds its children's caps whole
+        cap.radius = std::max(cap.radius, angle_between(cap.centre, child->centre) + child->radius);
+      up.push_back(static_cast<std::int32_t>(caps_.size()));
+      caps_.push_back(cap);
+    }
+    if (level.size() % 2) up.push_back(level.back());
+    level.swap(up);
+  }
+  root_ = level.front();
 }
 
 namespace {
@@ -119,7 +150,7 @@ double RangeEdges::nearest_angle(double lon, double lat) const {
   double best = std::numeric_limits<double>::infinity();
   if (caps_.empty()) return best;
   const Eigen::Vector3d p = unit_vector(lon, lat);
-  std::vector<std::pair<double, std::int32_t>> stack{{0.0, 0}};  // (lower bound, cap)
+  std::vector<std::pair<double, std::int32_t>> stack{{0.0, root_}};  // (lower bound, cap)
   while (!stack.empty()) {
     const auto [bound, c] = stack.back();
     stack.pop_back();

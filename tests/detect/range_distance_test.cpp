@@ -8,6 +8,8 @@
 #include <map>
 #include <memory>
 
+#include <Eigen/Geometry>
+
 #include <gtest/gtest.h>
 
 #include "../support.hpp"
@@ -61,7 +63,7 @@ TEST(RangeDistance, EqualsS2OnNaturalEarthOutlines) {
       EXPECT_EQ(ours[k], 0.0);
       ++inside;
     } else {
-      // 1e-6 rad is 6 m: the densified edges of both are the same arcs up to rounding
+      // 1e-6 rad is 6 m: both follow the drawn edges within about a metre
       EXPECT_NEAR(ours[k], p.angle, 1e-6 + 1e-6 * p.angle);
     }
     across += std::fabs(p.lon) > 179;
@@ -115,6 +117,27 @@ TEST(RangeDistance, ByHandOnAMeridianAndAtThePole) {
   // on the meridian, halfway up: on the edge
   EXPECT_NEAR(edges.nearest_angle(10, 30), 0, 1e-9);
   EXPECT_TRUE(std::isinf(RangeEdges({}).nearest_angle(0, 0)));
+}
+
+TEST(RangeDistance, EdgesFollowTheLineDrawnInLongitudeLatitudeToAMetre) {
+  // long edges where great circles and the drawn lines part most (|sin 2φ| = 1 at 45°), a diagonal
+  // one, and one across the equator; points on each drawn line (linear in longitude and latitude)
+  // must lie within 1 m of the arcs, and the line's midpoint on a 10° parallel is far (≈ 12 km,
+  // from the bulge formula Δλ² sin 2φ / 16 · R) from the single great circle through its ends
+  for (const auto& [a, b] : std::vector<std::pair<LonLat, LonLat>>{
+           {{0, 45}, {10, 45}}, {{-30, 40}, {25, 50}}, {{100, -20}, {120, 15}}, {{-179, 60}, {179, 60}}}) {
+    const RangeEdges edges({{a, b, {b.lon, b.lat + 0.001}, {a.lon, a.lat + 0.001}}});
+    double worst = 0;
+    for (int k = 0; k <= 1000; ++k) {
+      const double t = k / 1000.0;
+      worst = std::max(worst, edges.nearest_angle(a.lon + t * (b.lon - a.lon), a.lat + t * (b.lat - a.lat)) * kEarthRadiusM);
+    }
+    EXPECT_LT(worst, 1.0) << a.lon << " " << a.lat;
+  }
+  const Eigen::Vector3d p = unit_vector(0, 45), q = unit_vector(10, 45);
+  const Eigen::Vector3d normal = p.cross(q).normalized();
+  const double bulge = std::asin(std::fabs(unit_vector(5, 45).dot(normal))) * kEarthRadiusM;
+  EXPECT_NEAR(bulge, std::pow(10 * M_PI / 180, 2) / 16 * kEarthRadiusM, 0.02 * bulge);
 }
 
 }  // namespace

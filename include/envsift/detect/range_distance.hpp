@@ -1,10 +1,10 @@
 // The great-circle distance from a point to the nearest edge of a taxon's range polygons, on the
 // sphere of the uncertainty discs (great_circle.hpp). Range maps are drawn on longitude/latitude
 // maps, so an edge is the straight line between its vertices in longitude/latitude: edges are
-// densified every 0.05° (about 5 km) and each piece is taken as a great-circle arc, which differs
-// from the drawn line by well under a metre. Nearest-edge search: a hierarchy of spherical caps
-// over the arcs (each cap holds its arcs whole), searched branch and bound; building it costs
-// O(n log n) for n arcs, a query about O(log n) for points near the range.
+// cut into great-circle arcs that stay within 1 m of the drawn line (and span at most 2°). Nearest-edge search: a hierarchy of spherical caps
+// over the arcs (each cap holds its arcs whole), built bottom-up over the arcs sorted along a
+// Z-order curve (one sort), searched branch and bound: a query costs about O(log n) for points
+// near the range.
 #pragma once
 #include <cstddef>
 #include <cstdint>
@@ -41,6 +41,7 @@ class RangeEdges {
   std::vector<Eigen::Vector3d> middle_;  // per arc: its midpoint
   std::vector<double> half_;             // per arc: half its length (radians)
   std::vector<Cap> caps_;
+  std::int32_t root_ = -1;
 };
 
 // The unit vector of a longitude/latitude point, and the angle between two unit vectors

@@ -4,9 +4,10 @@
 #   Rscript make_fixture.R
 # Writes ranges.gpkg (the outlines as given, field scientificName) and expected.csv (points with
 # s2's distance to each outline, as an angle in radians: metres / s2_earth_radius_meters()).
-# envsift takes an edge as the straight line between its vertices in longitude/latitude,
-# densified every 0.05 degrees into great-circle arcs; s2 takes every edge as a great-circle arc.
-# So that both measure the same outline, s2 is given the outlines densified the same way. Natural
+# envsift takes an edge as the straight line between its vertices in longitude/latitude, cut
+# into great-circle arcs within 1 m of it; s2 takes every edge as a great-circle arc.
+# So that both measure the same outline, s2 is given the outlines densified every 0.05 degrees
+# (each piece then within about 1 m of the drawn line too). Natural
 # Earth splits outlines at the antimeridian into parts that share the ±180 meridian, which s2
 # rejects as a multipolygon; so s2 measures each part on its own and the distance to the
 # outline is the smallest (0 inside any part): the distance to a union is the least to its parts.
