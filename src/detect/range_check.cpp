@@ -92,11 +92,19 @@ void RangeCheck::prepare(RecordTable& t) {
       }
     }
   }
+  std::vector<std::string> named;  // taxa with features that hold no polygon, in the points' order
+  std::size_t features = 0;
   for (std::size_t k = 0; k < with_range.size(); ++k) {
     if (errors[k]) std::rethrow_exception(errors[k]);  // the first taxon's, whatever the threads
-    if (skipped[k])
-      t.warnings.push_back("--ranges " + settings_.path + ": " + std::to_string(skipped[k]) + " feature(s) of taxon '" +
-                           taxa[with_range[k]] + "' hold no polygon (a point, a line or no geometry) and are not used");
+    if (skipped[k]) named.push_back("'" + taxa[with_range[k]] + "'"), features += skipped[k];
+  }
+  if (!named.empty()) {  // one warning, however many taxa
+    std::string list;
+    for (std::size_t k = 0; k < named.size() && k < 5; ++k) list += (k ? ", " : "") + named[k];
+    if (named.size() > 5) list += " and " + std::to_string(named.size() - 5) + " more";
+    t.warnings.push_back("--ranges " + settings_.path + ": " + std::to_string(features) + " feature(s) of " +
+                         std::to_string(named.size()) + " taxa hold no polygon (a point, a line or no geometry) and are "
+                         "not used (" + list + "); a taxon with no polygon left has no range (no_range)");
   }
 }
 

@@ -69,7 +69,13 @@ double TaxonRange::distance_m(double lon, double lat) const {
 
 RangeLayer::RangeLayer(const RangeSource& source) : source_(source) {
   ensure_gdal_registered();
-  dataset_ = static_cast<GDALDataset*>(GDALOpenEx(source.path.c_str(), GDAL_OF_VECTOR | GDAL_OF_READONLY, nullptr, nullptr, nullptr));
+  VSIStatBufL st;
+  if (VSIStatL(source.path.c_str(), &st) != 0)
+    throw InputError(source.path, "no such file", "check the path given to --ranges");
+  {
+    const QuietGdalErrors quiet;  // the error below says what went wrong
+    dataset_ = static_cast<GDALDataset*>(GDALOpenEx(source.path.c_str(), GDAL_OF_VECTOR | GDAL_OF_READONLY, nullptr, nullptr, nullptr));
+  }
   if (!dataset_ || dataset_->GetLayerCount() < 1)
     throw InputError(source.path, "GDAL cannot read it as a vector layer of range polygons",
                      "give a GeoPackage, Shapefile or GeoJSON file of polygons (check it with ogrinfo)");

@@ -134,6 +134,19 @@ TEST(RangeCheck, NamesThatLookAlikeAreSaidNotMatched) {
   EXPECT_NE(by_id(out)["A1"][out.column("status")].find("no_range"), std::string::npos);
 }
 
+TEST(RangeCheck, FeaturesWithoutPolygonsAreSaidAndLeaveTheTaxonWithoutARange) {
+  const Small s = small("range-points", "{\"type\":\"Feature\",\"properties\":{\"scientificName\":\"Alpha one\"},"
+                                        "\"geometry\":{\"type\":\"Point\",\"coordinates\":[0.5,0.5]}}," +
+                                            square("Beta two", 0, 0, 1));
+  const auto r = run(screen_small(s, ""));
+  ASSERT_EQ(r.exit_code, 0) << r.output;
+  EXPECT_NE(r.output.find("1 feature(s) of 1 taxa hold no polygon"), std::string::npos) << r.output;
+  const Table out = read_csv(s.dir + "/out.csv");
+  auto rows = by_id(out);
+  EXPECT_NE(rows["A1"][out.column("status")].find("no_range"), std::string::npos);
+  EXPECT_EQ(rows["B1"][out.column("outside_range_stat")], "0");
+}
+
 TEST(RangeCheck, ALayerThatCannotBeUsedStopsTheRunWithItsFile) {
   const Small s = small("range-bad", square("Alpha one", -1, -1, 2));
   auto r = run(screen_small(s, " --range-taxon-field species"));
@@ -148,6 +161,11 @@ TEST(RangeCheck, ALayerThatCannotBeUsedStopsTheRunWithItsFile) {
           "/not-vectors.geojson --out " + s.dir + "/out.csv");
   EXPECT_EQ(r.exit_code, 3) << r.output;
   EXPECT_NE(r.output.find("cannot read it as a vector layer"), std::string::npos) << r.output;
+  EXPECT_EQ(r.output.find("ERROR"), std::string::npos) << r.output;  // one line of ours, not GDAL's
+  r = run(envsift_binary() + " screen -q --value-columns x --points " + s.points + " --ranges " + s.dir +
+          "/typo.gpkg --out " + s.dir + "/out.csv");
+  EXPECT_EQ(r.exit_code, 3) << r.output;
+  EXPECT_NE(r.output.find(s.dir + "/typo.gpkg: no such file; check the path given to --ranges"), std::string::npos) << r.output;
   // the range file named as an output: refused, and left as it was
   const std::string before = read_file(s.ranges);
   r = run(envsift_binary() + " screen -q --value-columns x --points " + s.points + " --ranges " + s.ranges + " --out " + s.ranges);
