@@ -6,4 +6,5 @@ int sample_command(int argc, char** argv);
 int screen_command(int argc, char** argv);
 int merge_command(int argc, char** argv);
 int evaluate_command(int argc, char** argv);
+int estimate_command(int argc, char** argv);
 }  // namespace envsift::cli

@@ -21,6 +21,7 @@ const char* kUsage =
     "  screen   sample, test each record against its taxon, and rank suspects for review\n"
     "  merge    combine the outputs of screen --shard I/N into one ranked file\n"
     "  evaluate measure what the tests find: virtual taxa with known errors on your rasters\n"
+    "  estimate the peak memory a screen will need (for cluster jobs)\n"
     "\n"
     "Flags are reasons to look, not proof of error: review flagged records before removing any.\n"
     "exit codes: 0 ok, 2 bad command line, 3 bad input, 4 output not written, 5 internal error,\n"
@@ -50,7 +51,8 @@ int main(int argc, char** argv) {
     if (command == "screen") return envsift::cli::screen_command(argc - 1, argv + 1);
     if (command == "merge") return envsift::cli::merge_command(argc - 1, argv + 1);
     if (command == "evaluate") return envsift::cli::evaluate_command(argc - 1, argv + 1);
-    std::cerr << "envsift: error: unknown command '" << command << "'; use sample, screen, merge or evaluate (envsift --help)\n";
+    if (command == "estimate") return envsift::cli::estimate_command(argc - 1, argv + 1);
+    std::cerr << "envsift: error: unknown command '" << command << "'; use sample, screen, merge, evaluate or estimate (envsift --help)\n";
     return static_cast<int>(ExitCode::usage);
   } catch (const envsift::Error& e) {
     std::cerr << "envsift: error: " << e.what()

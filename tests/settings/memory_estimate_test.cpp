@@ -72,5 +72,24 @@ TEST(MemoryEstimate, ARealRunStaysUnderItsEstimate) {
   }
 }
 
+// `envsift estimate` (what a cluster job asks for) gives the estimate the screen itself prints.
+TEST(MemoryEstimate, TheEstimateCommandGivesWhatTheScreenEstimates) {
+  const auto dir = temp_dir("memory-estimate-command");
+  ASSERT_EQ(run(std::string(ENVSIFT_BENCH_BINARY) + " points " + dir + "/points.csv 60000 40 11 -0.95 -0.95 0.95 0.95").exit_code, 0);
+  for (const std::string limit : {"", " --memory-limit 64"}) {
+    const auto screen = run(envsift_binary() + " screen --timings --points " + dir + "/points.csv" + demo_layers() + limit +
+                            " --out " + dir + "/out.csv");
+    ASSERT_EQ(screen.exit_code, 0) << screen.output;
+    std::smatch m;
+    ASSERT_TRUE(std::regex_search(screen.output, m, std::regex("estimated about ([0-9,]+) MB"))) << screen.output;
+    // the workload: 60,000 records of 40 taxa, each with an uncertainty (discs)
+    const auto estimate = run(envsift_binary() + " estimate --records 60000 --taxa 40 --discs" + demo_layers() + limit);
+    ASSERT_EQ(estimate.exit_code, 0) << estimate.output;
+    // stderr says it in words, stdout gives the number alone: the last line
+    const std::string out = estimate.output.substr(0, estimate.output.size() - 1);
+    EXPECT_EQ(out.substr(out.rfind('\n') + 1), std::string(m[1])) << estimate.output;
+  }
+}
+
 }  // namespace
 }  // namespace envsift
