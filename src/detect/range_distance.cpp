@@ -1,3 +1,8 @@
+// Distance from a point to great-circle arcs on the unit sphere: to the arc's great circle when
+// the point's projection falls between its ends (the cross-track distance of spherical
+// trigonometry, asin |p · n|, here as atan2 for accuracy), else to the nearer end; the bound on how
+// far a line drawn in longitude/latitude leaves a great circle is from the sphere's metric
+// (differential geometry; the derivation is at pieces_of). Textbook geometry, from memory.
 #include "envsift/detect/range_distance.hpp"
 
 #include <algorithm>
