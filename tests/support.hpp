@@ -91,6 +91,13 @@ inline Table read_csv(const std::string& path) {
   return t;
 }
 
+// The rows of a table by their ID (occurrenceID).
+inline std::map<std::string, std::vector<std::string>> by_id(const Table& t, const std::string& id = "occurrenceID") {
+  std::map<std::string, std::vector<std::string>> m;
+  for (const auto& row : t.rows) m[row[t.column(id)]] = row;
+  return m;
+}
+
 // One layer of values as a records × 1 matrix.
 inline Eigen::MatrixXd column(const std::vector<double>& v) {
   Eigen::MatrixXd m(static_cast<Eigen::Index>(v.size()), 1);

@@ -20,12 +20,6 @@ std::string demo_screen(const std::string& more) {
          " --ranges " + source_path("demo-points/ranges.geojson") + more;
 }
 
-std::map<std::string, std::vector<std::string>> by_id(const Table& t) {
-  std::map<std::string, std::vector<std::string>> m;
-  for (const auto& row : t.rows) m[row[t.column("occurrenceID")]] = row;
-  return m;
-}
-
 TEST(RangeCheck, ARecordOffEveryLayerIsJudgedByItsRangeAndRankedHigh) {
   const auto dir = temp_dir("range-demo");
   const auto r = run(demo_screen(" --out " + dir + "/out.csv --summary " + dir + "/taxa.csv --gis " + dir +

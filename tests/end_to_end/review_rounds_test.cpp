@@ -55,12 +55,6 @@ std::string screen(const std::string& points, const std::string& out, const std:
   return envsift_binary() + " screen -q --tests mahalanobis --value-columns x,y --points " + points + " --out " + out + more;
 }
 
-std::map<std::string, std::vector<std::string>> by_id(const Table& t) {
-  std::map<std::string, std::vector<std::string>> m;
-  for (const auto& row : t.rows) m[row[t.column("occurrenceID")]] = row;
-  return m;
-}
-
 TEST(ReviewRounds, AConfirmedErrorNoLongerMasksItsNeighbour) {
   const Planted p = planted("review-masking");
   ASSERT_EQ(run(screen(p.points, p.dir + "/round1.csv")).exit_code, 0);
