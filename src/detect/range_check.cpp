@@ -51,12 +51,17 @@ void RangeCheck::prepare(RecordTable& t) {
   t.warnings.insert(t.warnings.end(), index.notes().begin(), index.notes().end());
   const auto& taxa = t.points.taxa;
   std::vector<std::vector<std::size_t>> records_of(taxa.size());
-  for (std::size_t i = 0; i < n; ++i) records_of[t.points.records[i].taxon].push_back(i);
+  for (std::size_t i = 0; i < n; ++i) {
+    const auto& codes = t.codes.of(i);  // --shard: another shard judges it, so its range is not read here
+    if (codes.size() == 1 && codes[0] == reason::other_shard) continue;
+    records_of[t.points.records[i].taxon].push_back(i);
+  }
   // names that look like a range's but are not the same: said, never matched silently
   std::map<std::string, std::string> range_by_likeness;
   for (const auto& name : index.taxa()) range_by_likeness.emplace(taxon_likeness_key(name), name);
   std::vector<std::uint32_t> with_range;
   for (std::uint32_t k = 1; k < taxa.size(); ++k) {
+    if (records_of[k].empty()) continue;
     if (index.has(taxa[k])) {
       with_range.push_back(k);
       continue;

@@ -69,6 +69,19 @@ TEST(RangeCheck, SameOutputForAnyThreadCount) {
   EXPECT_TRUE(read_file(dir + "/one.csv") == read_file(dir + "/two.csv"));
 }
 
+TEST(RangeCheck, ShardsMergeToTheSingleRun) {
+  const auto dir = temp_dir("range-shards");
+  ASSERT_EQ(run(demo_screen(" --out " + dir + "/single.csv")).exit_code, 0);
+  std::string shards;
+  for (int i = 0; i < 3; ++i) {
+    const std::string out = dir + "/shard-" + std::to_string(i) + ".csv";
+    ASSERT_EQ(run(demo_screen(" --shard " + std::to_string(i) + "/3 --out " + out)).exit_code, 0);
+    shards += " " + out;
+  }
+  ASSERT_EQ(run(envsift_binary() + " merge" + shards + " --out " + dir + "/merged.csv").exit_code, 0);
+  EXPECT_TRUE(read_file(dir + "/single.csv") == read_file(dir + "/merged.csv"));
+}
+
 // Two taxa on a small grid; the range layer written here as GeoJSON.
 struct Small {
   std::string dir, points, ranges;
