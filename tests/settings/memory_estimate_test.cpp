@@ -72,7 +72,8 @@ TEST(MemoryEstimate, ARealRunStaysUnderItsEstimate) {
   }
 }
 
-// `envsift estimate` (what a cluster job asks for) gives the estimate the screen itself prints.
+// `envsift estimate` (what a cluster job asks for) gives the estimate the screen itself prints:
+// envsift's own contract, checked against envsift (no outside reference: the two must agree).
 TEST(MemoryEstimate, TheEstimateCommandGivesWhatTheScreenEstimates) {
   const auto dir = temp_dir("memory-estimate-command");
   ASSERT_EQ(run(std::string(ENVSIFT_BENCH_BINARY) + " points " + dir + "/points.csv 60000 40 11 -0.95 -0.95 0.95 0.95").exit_code, 0);
