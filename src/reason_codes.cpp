@@ -6,7 +6,7 @@ namespace envsift::reason {
 
 bool prevents_scoring(const std::string& code) {
   // notes: the record was read (or judged) all the same
-  static const std::string notes[] = {coord_dms,         coord_hemisphere,        coord_decimal_comma, latin1_converted,
+  static const std::string notes[] = {coord_dms, coord_unicode_minus,         coord_hemisphere,        coord_decimal_comma, latin1_converted,
                                       duplicate_id,      ragged_row,              spans_lines,              uncertainty_not_numeric,
                                       uncertainty_capped, coord_possibly_swapped, elevation_unreadable, elevation_ambiguous,
                                       elevation_approximate, looks_multimodal, no_range};

@@ -15,10 +15,13 @@ inline const std::string coord_not_finite = "coord_not_finite";      // NaN, inf
 inline const std::string coord_out_of_range = "coord_out_of_range";  // |lat| > 90 or |lon| > 180
 inline const std::string coord_wrong_hemisphere = "coord_wrong_hemisphere";  // N/S on a longitude, or a sign and a letter
 inline const std::string coord_possibly_swapped = "coord_possibly_swapped";  // reported, never corrected
+inline const std::string coord_sign_unclear = "coord_sign_unclear";  // "(0.2)", "0.2-": a sign where no reader agrees on it
+inline const std::string coord_zero_zero = "coord_zero_zero";        // longitude and latitude both exactly 0: a placeholder
 // Read, but from an unusual form (the record is still used; the code says how it was read)
 inline const std::string coord_dms = "coord_dms";                      // degrees-minutes-seconds
 inline const std::string coord_hemisphere = "coord_hemisphere";        // hemisphere letters
 inline const std::string coord_decimal_comma = "coord_decimal_comma";  // "12,5"
+inline const std::string coord_unicode_minus = "coord_unicode_minus";  // "−12.5", "–12.5": a minus sign or dash read as minus
 inline const std::string latin1_converted = "latin1_converted";        // bytes not UTF-8, read as Latin-1
 inline const std::string duplicate_id = "duplicate_id";                // another record has the same ID
 inline const std::string ragged_row = "ragged_row";                  // field count differs from header

@@ -12,6 +12,7 @@
 #include <ogr_spatialref.h>
 
 #include "envsift/detect/skew_scale.hpp"
+#include "envsift/crs_transform.hpp"
 #include "envsift/errors.hpp"
 #include "envsift/seeded_random.hpp"
 #include "envsift/sample/raster_stack.hpp"
@@ -74,12 +75,7 @@ StudyArea study_area(const std::vector<std::string>& layers, std::size_t max_cel
     picked.assign(chosen.begin(), chosen.end());
     std::sort(picked.begin(), picked.end());
   }
-  OGRSpatialReference source, wgs84;
-  source.importFromWkt(first.crs_wkt.c_str());
-  source.SetAxisMappingStrategy(OAMS_TRADITIONAL_GIS_ORDER);
-  wgs84.importFromEPSG(4326);
-  wgs84.SetAxisMappingStrategy(OAMS_TRADITIONAL_GIS_ORDER);
-  std::unique_ptr<OGRCoordinateTransformation> to_wgs84(OGRCreateCoordinateTransformation(&source, &wgs84));
+  const CrsTransformation to_wgs84 = new_transformation(first.crs_wkt, wgs84_wkt());
   if (!to_wgs84) throw InputError(first.spec.path, "cannot transform its CRS to WGS 84", "give a layer with a usual CRS first");
   std::vector<double> x(picked.size()), y(picked.size());
   const auto& g = first.geotransform;

@@ -67,18 +67,34 @@ char take_hemisphere(std::string& s) {
   return 0;
 }
 
-// Degrees, minutes and seconds split by °, º, d, ', ′, m, ", ″, s, : or spaces.
+// The UTF-8 separator at s[i] of degrees, minutes and seconds, or 0: spaces, :, d m s, ' ",
+// ° º ˚ (degree, ordinal, ring), ′ ″ (prime, double prime) and ’ ” (the quotes word processors
+// put in their place). Anything else (_ ( ) - , or a stray symbol) makes the text no coordinate.
+std::size_t dms_separator(const std::string& s, std::size_t i) {
+  static const std::string_view marks[] = {" ", "\t", ":", "d", "m", "s", "D", "M", "S", "'", "\"", "\u00B0", "\u00BA",
+                                           "\u02DA", "\u2032", "\u2033", "\u2019", "\u201D"};
+  for (std::string_view m : marks)
+    if (s.compare(i, m.size(), m) == 0) return m.size();
+  return 0;
+}
+
+// Degrees, minutes and seconds split by the separators above.
 bool parse_dms(const std::string& s, double& value) {
   std::vector<std::string> parts(1);
   bool negative = false;
   std::size_t i = 0;
   if (!s.empty() && (s[0] == '-' || s[0] == '+')) negative = s[0] == '-', i = 1;
-  for (; i < s.size(); ++i) {
+  while (i < s.size()) {
     const unsigned char c = static_cast<unsigned char>(s[i]);
-    if (std::isdigit(c) || c == '.') parts.back() += static_cast<char>(c);
-    else if (!parts.back().empty()) parts.emplace_back();
-    // any other byte (spaces, ° ′ ″ in UTF-8, d m s ' " :) separates
-    if (std::isalpha(c) && c != 'd' && c != 'm' && c != 's' && c != 'D' && c != 'M' && c != 'S') return false;
+    if (std::isdigit(c) || c == '.') {
+      parts.back() += static_cast<char>(c);
+      ++i;
+      continue;
+    }
+    const std::size_t separator = dms_separator(s, i);
+    if (!separator) return false;
+    if (!parts.back().empty()) parts.emplace_back();
+    i += separator;
   }
   if (parts.back().empty()) parts.pop_back();
   if (parts.empty() || parts.size() > 3) return false;
@@ -102,6 +118,33 @@ bool only_digits_and_one(std::string_view s, char separator) {
   return seps == 1 && s.back() != separator && std::isdigit(static_cast<unsigned char>(s[s[0] == '-' || s[0] == '+'])) ;
 }
 
+// Characters that are written for a minus sign (Unicode's character database: U+2212 MINUS SIGN,
+// the dashes U+2010-U+2014, U+FE63 SMALL HYPHEN-MINUS, U+FF0D FULLWIDTH HYPHEN-MINUS, U+02D7
+// MODIFIER LETTER MINUS SIGN, U+2796 HEAVY MINUS SIGN), as UTF-8.
+constexpr std::string_view kMinusLike[] = {"\u2212", "\u2010", "\u2011", "\u2012", "\u2013", "\u2014",
+                                           "\uFE63", "\uFF0D", "\u02D7", "\u2796"};
+
+// A minus-like character at the start becomes '-'; true when one was replaced.
+bool replace_minus_like(std::string& s) {
+  for (std::string_view m : kMinusLike)
+    if (s.compare(0, m.size(), m) == 0) {
+      s.replace(0, m.size(), "-");
+      return true;
+    }
+  return false;
+}
+
+// A sign written where readers disagree on it: accounting brackets "(0.2)" and a trailing sign
+// "0.2-" (or a minus-like character at the end). Read as anything, one reader's minus is another's
+// plus; refused.
+bool unclear_sign(const std::string& s) {
+  if (s.size() >= 2 && s.front() == '(' && s.back() == ')') return true;
+  if (s.size() >= 2 && (s.back() == '-' || s.back() == '+')) return true;
+  for (std::string_view m : kMinusLike)
+    if (s.size() > m.size() && s.compare(s.size() - m.size(), m.size(), m) == 0) return true;
+  return false;
+}
+
 }  // namespace
 
 ParsedNumber parse_coordinate(std::string_view text, Axis axis) {
@@ -112,6 +155,11 @@ ParsedNumber parse_coordinate(std::string_view text, Axis axis) {
   }
   if (out.problem == reason::coord_not_numeric) {
     std::string s(trim(text));
+    if (unclear_sign(s)) {
+      out.problem = reason::coord_sign_unclear;
+      return out;
+    }
+    const bool unicode_minus = replace_minus_like(s);
     const char hemisphere = take_hemisphere(s);
     double value = 0;
     bool read = false;
@@ -130,6 +178,7 @@ ParsedNumber parse_coordinate(std::string_view text, Axis axis) {
       out.note = reason::coord_dms;
     }
     if (!read) return out;  // coord_not_numeric
+    if (unicode_minus) out.note = reason::coord_unicode_minus;  // the sign matters more than the form
     if (hemisphere) {
       const bool fits = axis == Axis::latitude ? (hemisphere == 'N' || hemisphere == 'S') : (hemisphere == 'E' || hemisphere == 'W');
       if (!fits || value < 0) {  // a letter for the other axis, or a sign and a letter at once

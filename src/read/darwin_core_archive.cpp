@@ -1,23 +1,48 @@
 #include "envsift/read/darwin_core_archive.hpp"
 
 #include <memory>
+#include <sys/stat.h>
 
 #include <cpl_minixml.h>
 #include <cpl_vsi.h>
 
 #include "envsift/errors.hpp"
+#include "vsi_stream.hpp"
+#include "zip_directory.hpp"
 
 namespace envsift {
 namespace {
 
-std::string read_all(const std::string& vsi_path) {
-  VSILFILE* f = VSIFOpenL(vsi_path.c_str(), "rb");
-  if (!f) return "";
-  std::string text;
-  char buf[65536];
-  for (std::size_t got; (got = VSIFReadL(buf, 1, sizeof buf, f)) > 0;) text.append(buf, got);
-  VSIFCloseL(f);
-  return text;
+// The core's location as a path inside the archive, or an InputError: the archive may name only
+// its own files.
+std::string checked_location(const std::string& location, const std::string& meta_name) {
+  const std::string todo = "an archive may name only its own files; give the core's name relative to meta.xml "
+                           "(e.g. occurrence.txt), or give the points file itself";
+  if (location.front() == '/' || location.front() == '\\' || location.find(':') != std::string::npos)
+    throw InputError(meta_name, "the core's location '" + location + "' is an absolute path or a URL", todo);
+  std::size_t start = 0;
+  while (start <= location.size()) {
+    const std::size_t end = std::min(location.find_first_of("/\\", start), location.size());
+    if (location.compare(start, end - start, "..") == 0 && end - start == 2)
+      throw InputError(meta_name, "the core's location '" + location + "' climbs out of the archive (..)", todo);
+    start = end + 1;
+  }
+  return location;
+}
+
+// In a folder: no step of the location may be a symbolic link (it could lead anywhere).
+void refuse_links(const std::string& folder, const std::string& location, const std::string& meta_name) {
+  std::string at = folder;
+  std::size_t start = 0;
+  while (start < location.size()) {
+    const std::size_t end = std::min(location.find('/', start), location.size());
+    at += "/" + location.substr(start, end - start);
+    struct stat st;
+    if (::lstat(at.c_str(), &st) == 0 && S_ISLNK(st.st_mode))
+      throw InputError(meta_name, "the core's location '" + location + "' passes through a symbolic link (" + at + ")",
+                       "an archive may name only its own files; copy the file into the archive folder");
+    start = end + 1;
+  }
 }
 
 // "\t" (as the Text Guide writes it in attributes), "\\t", a real tab, "," ...
@@ -39,6 +64,7 @@ std::optional<ArchiveCore> read_archive_meta(const std::string& path) {
   VSIStatBufL st;
   if (VSIStatL(path.c_str(), &st) != 0) return std::nullopt;
   std::string root;
+  std::vector<detail::ZipEntry> members;
   if (VSI_ISDIR(st.st_mode)) {
     root = path;
   } else if (!VSI_ISREG(st.st_mode)) {
@@ -51,9 +77,18 @@ std::optional<ArchiveCore> read_archive_meta(const std::string& path) {
     VSIFCloseL(f);
     if (got != 4 || std::string(magic, 4) != std::string("PK\x03\x04", 4)) return std::nullopt;
     root = "/vsizip/" + path;
+    members = detail::read_zip_directory(path);
   }
+  const bool zipped = !members.empty() || root != path;
+  auto member = [&](const std::string& name) -> std::optional<detail::ZipEntry> {
+    if (!zipped) return std::nullopt;
+    auto entry = detail::find_zip_entry(members, name);
+    if (entry) detail::refuse_zip_link(path, *entry);
+    return entry;
+  };
   const std::string meta_path = root + "/meta.xml", meta_name = path + "/meta.xml";
-  const std::string xml = read_all(meta_path);
+  if (zipped && !detail::find_zip_entry(members, "meta.xml")) return std::nullopt;  // a zip, but not an archive
+  const std::string xml = detail::read_whole(detail::archive_member(meta_path, meta_name, member("meta.xml")));
   if (xml.empty()) return std::nullopt;  // a zip or folder, but not an archive
 
   std::unique_ptr<CPLXMLNode, decltype(&CPLDestroyXMLNode)> doc(CPLParseXMLString(xml.c_str()), CPLDestroyXMLNode);
@@ -63,8 +98,19 @@ std::optional<ArchiveCore> read_archive_meta(const std::string& path) {
   ArchiveCore c;
   const std::string location = CPLGetXMLValue(core, "files.location", "");
   if (location.empty()) throw InputError(meta_name, "the core names no data file (<files><location>)", "check the archive");
+  checked_location(location, meta_name);
   c.vsi_path = root + "/" + location;
   c.name = path + "/" + location;
+  if (zipped) {
+    const auto core_member = member(location);
+    if (!core_member)
+      throw InputError(meta_name, "the core's location '" + location + "' is not a member of the archive",
+                       "check the archive's contents (unzip -l)");
+    c.zip_member = true, c.crc32 = core_member->crc32, c.size = core_member->size;
+  } else {
+    refuse_links(path, location, meta_name);
+    c.files = {meta_path, c.vsi_path};
+  }
   c.delimiter = terminator(CPLGetXMLValue(core, "fieldsTerminatedBy", ","), meta_name);
   c.quoted = std::string(CPLGetXMLValue(core, "fieldsEnclosedBy", "\"")) == "\"";  // the Text Guide's defaults
   c.header_lines = static_cast<std::size_t>(std::atoi(CPLGetXMLValue(core, "ignoreHeaderLines", "0")));

@@ -199,7 +199,10 @@ PointTable read_points(const std::string& path, const ReaderOptions& options) {
     throw InputError(path, "is not a file (a directory?)", "give the path of the points file itself, or of a Darwin Core Archive folder");
   if (path != "-")
     if (const auto core = read_archive_meta(path)) {  // a Darwin Core Archive (zip or folder)
-      detail::VsiInput in(core->vsi_path);
+      detail::VsiInput in(detail::archive_member(
+          core->vsi_path, core->name,
+          core->zip_member ? std::optional<detail::ZipEntry>(detail::ZipEntry{"", core->crc32, core->size, false, false})
+                           : std::nullopt));
       if (!in) throw InputError(core->name, "cannot open the archive's core file", "check the archive");
       PointTable t = read_delimited(in, core->name, options, &*core);
       finish_table(t);
@@ -211,7 +214,7 @@ PointTable read_points(const std::string& path, const ReaderOptions& options) {
     finish_table(t);
     return t;
   }
-  detail::VsiInput in(source.vsi_path);
+  detail::VsiInput in(source);
   if (!in) throw InputError(source.name, "cannot open the points file", "check the path and its read permission");
   return read_points_from_text(in, source.name, options);
 }

@@ -10,6 +10,7 @@
 #include <ogrsf_frmts.h>
 
 #include "../gdal_init.hpp"
+#include "envsift/crs_transform.hpp"
 #include "envsift/errors.hpp"
 #include "envsift/read/taxon_names.hpp"
 #include "envsift/sample/great_circle.hpp"
@@ -97,20 +98,16 @@ RangeLayer::RangeLayer(const RangeSource& source) : source_(source) {
   }
   // CRS: reproject to WGS 84 longitude/latitude
   const OGRSpatialReference* srs = layer_->GetSpatialRef();
-  OGRSpatialReference wgs84;
-  wgs84.SetWellKnownGeogCS("WGS84");
-  wgs84.SetAxisMappingStrategy(OAMS_TRADITIONAL_GIS_ORDER);
-  if (!srs) {
+  const std::string crs = crs_text(srs);
+  if (crs.empty()) {
     notes_.push_back("--ranges " + source.path + ": the layer has no CRS, so its coordinates are read as WGS 84 "
                      "longitude/latitude");
-  } else if (!srs->IsSame(&wgs84)) {
-    OGRSpatialReference from(*srs);
-    from.SetAxisMappingStrategy(OAMS_TRADITIONAL_GIS_ORDER);
-    to_wgs84_ = OGRCreateCoordinateTransformation(&from, &wgs84);
+  } else if (!is_wgs84_lon_lat(crs)) {
+    to_wgs84_ = new_transformation(crs, wgs84_wkt());
     if (!to_wgs84_)
       throw InputError(source.path, "its CRS cannot be transformed to WGS 84 longitude/latitude",
                        "reproject it first, e.g. ogr2ogr -t_srs EPSG:4326 out.gpkg " + source.path);
-    if (from.IsProjected()) segment_ = kProjectedSegmentM / from.GetLinearUnits();
+    if (srs->IsProjected()) segment_ = kProjectedSegmentM / srs->GetLinearUnits();
   }
   // the index: feature IDs per taxon, read without geometries or other fields
   std::vector<const char*> ignored{"OGR_GEOMETRY", "OGR_STYLE"};
@@ -132,7 +129,6 @@ RangeLayer::RangeLayer(const RangeSource& source) : source_(source) {
 }
 
 RangeLayer::~RangeLayer() {
-  if (to_wgs84_) OGRCoordinateTransformation::DestroyCT(to_wgs84_);
   GDALClose(dataset_);
 }
 
@@ -158,7 +154,7 @@ std::unique_ptr<TaxonRange> RangeLayer::load(const std::string& taxon) {
     for (auto& p : parts) {
       if (to_wgs84_) {
         if (segment_ > 0) p->segmentize(segment_);
-        if (p->transform(to_wgs84_) != OGRERR_NONE)
+        if (p->transform(to_wgs84_.get()) != OGRERR_NONE)
           throw InputError(source_.path, "feature " + std::to_string(id) + " (" + taxon + ") cannot be reprojected to WGS 84",
                            "check its coordinates and the layer's CRS");
       }

@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cctype>
 
+#include "envsift/crs_transform.hpp"
 #include "envsift/errors.hpp"
 
 namespace envsift::detail {
@@ -71,13 +72,11 @@ ColumnIndex locate_columns(const PointTable& table, const ReaderOptions& o) {
 
 std::unique_ptr<OGRCoordinateTransformation> points_crs_transformation(const std::string& crs) {
   if (crs.empty()) return nullptr;
-  OGRSpatialReference from, to;
+  OGRSpatialReference from;
   if (from.SetFromUserInput(crs.c_str()) != OGRERR_NONE)
     throw UsageError("--points-crs " + crs + " is not a CRS GDAL/PROJ knows; give e.g. EPSG:32631, a WKT string or a .prj file");
-  from.SetAxisMappingStrategy(OAMS_TRADITIONAL_GIS_ORDER);  // x = easting (longitude column), y = northing
-  to.SetWellKnownGeogCS("WGS84");
-  to.SetAxisMappingStrategy(OAMS_TRADITIONAL_GIS_ORDER);
-  std::unique_ptr<OGRCoordinateTransformation> t(OGRCreateCoordinateTransformation(&from, &to));
+  // x = easting (the longitude column), y = northing
+  CrsTransformation t = new_transformation(crs_text(&from), wgs84_wkt());
   if (!t) throw UsageError("--points-crs " + crs + ": no transformation to WGS 84 is known; check the CRS");
   return t;
 }

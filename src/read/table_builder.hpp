@@ -69,7 +69,9 @@ class TableBuilder {
         for (const auto* code : {&p->problem, &p->note})
           if (!code->empty() && std::find(problems.begin(), problems.end(), *code) == problems.end())
             problems.push_back(*code);
-      if (lon.problem.empty() && lat.problem.empty()) {
+      if (lon.problem.empty() && lat.problem.empty() && lon.value == 0 && lat.value == 0) {
+        problems.push_back(reason::coord_zero_zero);  // what broken exports write for "no coordinates"
+      } else if (lon.problem.empty() && lat.problem.empty()) {
         r.longitude = lon.value;
         r.latitude = lat.value;
       } else if (lat.problem == reason::coord_out_of_range && lon.problem.empty() && std::fabs(lon.value) <= 90) {
@@ -98,6 +100,10 @@ class TableBuilder {
         if (std::find(problems.begin(), problems.end(), code) == problems.end()) problems.push_back(code);
       }
     if (!x.problem.empty() || !y.problem.empty()) return;
+    if (x.value == 0 && y.value == 0) {  // the CRS's origin: a placeholder, as 0/0 in degrees
+      problems.push_back(reason::coord_zero_zero);
+      return;
+    }
     double lon = x.value, lat = y.value;
     if (!to_wgs84_->Transform(1, &lon, &lat) || !std::isfinite(lon) || !std::isfinite(lat) || std::fabs(lat) > 90 ||
         std::fabs(lon) > 180) {

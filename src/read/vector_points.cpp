@@ -3,6 +3,7 @@
 #include <gdal_priv.h>
 #include <ogrsf_frmts.h>
 
+#include "envsift/crs_transform.hpp"
 #include "envsift/errors.hpp"
 #include "gdal_init.hpp"
 #include "table_builder.hpp"
@@ -45,13 +46,8 @@ PointTable read_vector(const std::string& path, const ReaderOptions& o) {
     table.columns.push_back(o.columns.longitude);
     table.columns.push_back(o.columns.latitude);
     const OGRSpatialReference* src = layer->GetSpatialRef();
-    if (src) {
-      OGRSpatialReference wgs84, source(*src);
-      wgs84.SetWellKnownGeogCS("WGS84");
-      wgs84.SetAxisMappingStrategy(OAMS_TRADITIONAL_GIS_ORDER);
-      source.SetAxisMappingStrategy(OAMS_TRADITIONAL_GIS_ORDER);
-      if (!source.IsSame(&wgs84)) to_wgs84.reset(OGRCreateCoordinateTransformation(&source, &wgs84));
-    }
+    if (const std::string crs = crs_text(src); !crs.empty() && !is_wgs84_lon_lat(crs))
+      to_wgs84 = new_transformation(crs, wgs84_wkt());
   }
   const ColumnIndex ix = locate_columns(table, o);
   table.uncertainty_column = ix.uncertainty;

@@ -6,6 +6,7 @@
 #include <unordered_map>
 
 #include "envsift/errors.hpp"
+#include "envsift/spreadsheet_cells.hpp"
 #include "envsift/read/csv_reader.hpp"
 #include "envsift/run_summary.hpp"
 
@@ -73,6 +74,7 @@ DecisionFile read_decision_file(const std::string& path, const std::string& id_c
   std::unordered_map<std::string, std::size_t> seen;  // ID → line
   while (reader.next(fields, line)) {
     if (fields.size() == 1 && trimmed(fields[0]).empty()) continue;  // a blank line
+    for (auto& f : fields) f = from_spreadsheet_safe(f);  // the template's neutralised cells, as they were
     fields.resize(columns.size());
     DecisionRow row;
     row.line = line;

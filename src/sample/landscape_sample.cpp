@@ -6,6 +6,7 @@
 
 #include <ogr_spatialref.h>
 
+#include "envsift/crs_transform.hpp"
 #include "envsift/errors.hpp"
 #include "envsift/median.hpp"
 #include "envsift/sample/great_circle.hpp"
@@ -70,12 +71,7 @@ Eigen::MatrixXd LandscapeSampler::judged_values(const Samples& all, Eigen::Index
 
 void LandscapeSampler::draw_extent() {
   const LayerInfo& first = stack_.layers().at(0);
-  OGRSpatialReference source, wgs84;
-  source.importFromWkt(first.crs_wkt.c_str());
-  source.SetAxisMappingStrategy(OAMS_TRADITIONAL_GIS_ORDER);
-  wgs84.importFromEPSG(4326);
-  wgs84.SetAxisMappingStrategy(OAMS_TRADITIONAL_GIS_ORDER);
-  std::unique_ptr<OGRCoordinateTransformation> to_wgs84(OGRCreateCoordinateTransformation(&source, &wgs84));
+  const CrsTransformation to_wgs84 = new_transformation(first.crs_wkt, wgs84_wkt());
   if (!to_wgs84) throw InputError(first.spec.path, "cannot transform its CRS to WGS 84", "use --landscape-area buffer");
   SeededRandom random(stable_hash("landscape extent", options_.seed ^ kFnvBasis));
   std::vector<double> lon, lat;

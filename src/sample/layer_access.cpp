@@ -10,13 +10,6 @@
 
 namespace envsift::detail {
 
-OGRSpatialReference wgs84_lon_lat() {
-  OGRSpatialReference srs;
-  srs.SetWellKnownGeogCS("WGS84");
-  srs.SetAxisMappingStrategy(OAMS_TRADITIONAL_GIS_ORDER);
-  return srs;
-}
-
 std::unique_ptr<GDALDataset> open_raster(const std::string& path) {
   ensure_gdal_registered();
   CPLErrorReset();
@@ -43,18 +36,13 @@ GDALRasterBand* ThreadHandles::band(const LayerInfo& layer, std::size_t index) {
 
 LayerAccess::LayerAccess(const LayerInfo& layer, std::size_t index, BlockCache& cache, ThreadHandles& handles)
     : layer_(layer), index_(static_cast<std::uint32_t>(index)), cache_(cache), handles_(handles) {
-  srs_.importFromWkt(layer.crs_wkt.c_str());
-  srs_.SetAxisMappingStrategy(OAMS_TRADITIONAL_GIS_ORDER);
-  const OGRSpatialReference wgs84 = wgs84_lon_lat();
-  same_as_wgs84_ = srs_.IsSame(&wgs84);
+  same_as_wgs84_ = is_wgs84_lon_lat(layer.crs_wkt);
   if (!GDALInvGeoTransform(const_cast<double*>(layer.geotransform.data()), inverse_.data()))
     throw InputError(layer.spec.path, "has a geotransform that cannot be inverted", "check its georeferencing (gdalinfo)");
 }
 
-std::unique_ptr<OGRCoordinateTransformation> LayerAccess::transformation(bool forward) const {
-  const OGRSpatialReference wgs84 = wgs84_lon_lat();
-  return std::unique_ptr<OGRCoordinateTransformation>(
-      forward ? OGRCreateCoordinateTransformation(&wgs84, &srs_) : OGRCreateCoordinateTransformation(&srs_, &wgs84));
+CrsTransformation LayerAccess::transformation(bool forward) const {
+  return forward ? new_transformation(wgs84_wkt(), layer_.crs_wkt) : new_transformation(layer_.crs_wkt, wgs84_wkt());
 }
 
 void LayerAccess::to_layer(std::vector<double>& x, std::vector<double>& y) const {

@@ -8,12 +8,12 @@
 #include <gdal_priv.h>
 #include <ogr_spatialref.h>
 
+#include "envsift/crs_transform.hpp"
 #include "envsift/sample/block_cache.hpp"
 #include "envsift/sample/raster_stack.hpp"
 
 namespace envsift::detail {
 
-OGRSpatialReference wgs84_lon_lat();
 std::unique_ptr<GDALDataset> open_raster(const std::string& path);
 
 // GDAL datasets are not thread-safe: every thread reads through handles of its own.
@@ -32,8 +32,9 @@ class LayerAccess {
 
   const LayerInfo& info() const { return layer_; }
   bool same_crs_as_wgs84() const { return same_as_wgs84_; }
-  // A new transformation WGS 84 lon/lat → layer CRS (forward) or back; one per thread.
-  std::unique_ptr<OGRCoordinateTransformation> transformation(bool forward) const;
+  // A new transformation WGS 84 lon/lat → layer CRS (forward) or back, for the calling thread
+  // only (crs_transform.hpp: never shared between threads).
+  CrsTransformation transformation(bool forward) const;
   // Transforms lon/lat to layer coordinates in parallel; NaN where it fails.
   void to_layer(std::vector<double>& x, std::vector<double>& y) const;
   // Pixel position of layer coordinates (cell centres at .5), with a ±360° retry on geographic
@@ -53,7 +54,6 @@ class LayerAccess {
   std::uint32_t index_;
   BlockCache& cache_;
   ThreadHandles& handles_;
-  OGRSpatialReference srs_;
   bool same_as_wgs84_ = false;
   std::array<double, 6> inverse_{};  // the inverse geotransform, as GDAL's tools compute it
 };

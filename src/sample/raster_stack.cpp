@@ -12,6 +12,7 @@
 #include <omp.h>
 
 #include "envsift/errors.hpp"
+#include "envsift/spreadsheet_cells.hpp"
 #include "gdal_init.hpp"
 #include "layer_access.hpp"
 
@@ -168,6 +169,10 @@ std::vector<LayerSpec> expand_layer_arguments(const std::vector<std::string>& ar
       specs.push_back({bands == 1 ? name : name + "_b" + std::to_string(b), path, b});
   }
   std::set<std::string> seen;
+  for (const auto& s : specs)
+    if (starts_like_formula(s.name))  // it heads a column and begins reasons: a spreadsheet would run it
+      throw UsageError("the layer name '" + s.name + "' (" + s.path +
+                       ") begins like a spreadsheet formula (= + - @); name the layer with NAME=PATH, e.g. layer1=" + s.path);
   for (const auto& s : specs)
     if (!seen.insert(s.name).second)
       throw UsageError("two layers are named '" + s.name + "'; name one explicitly with NAME=PATH, e.g. " +

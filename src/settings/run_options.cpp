@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <omp.h>
+#include <sys/resource.h>
 #include <cpl_conv.h>
 
 #include "envsift/errors.hpp"
@@ -146,8 +147,12 @@ const std::vector<OptionSpec>& sampling_options() {
     no_discs.set = [](ScreenSettings& s, const std::string& text) { s.sampling.discs = text == "false"; };
     no_discs.get = [](const ScreenSettings& s) { return std::string(s.sampling.discs ? "false" : "true"); };
     v.push_back(no_discs);
-    v.push_back(count_option("threads", "N", "threads to use (default: all cores); results do not depend on it",
-                             [](ScreenSettings& s) -> std::size_t& { return s.sampling.threads; }));
+    // 0 (unset) is every core; each thread keeps its own handle on every layer, so the count is
+    // bounded to keep open files and thread stacks within what a machine gives a process
+    v.push_back(count_option("threads", "N",
+                             "threads to use, 1 to " + std::to_string(kMaxThreads) +
+                                 " (default: all cores); results do not depend on it",
+                             [](ScreenSettings& s) -> std::size_t& { return s.sampling.threads; }, between(0, kMaxThreads)));
     v.back().get = [](const ScreenSettings& s) { return s.sampling.threads ? std::to_string(s.sampling.threads) : std::string(); };
     v.push_back(count_option("block-cache-mb", "MB", "memory for decoded raster blocks (at most a quarter of --memory-limit)",
                              [](ScreenSettings& s) -> std::size_t& { return s.sampling.block_cache_mb; }, at_least(1)));
@@ -219,6 +224,13 @@ void apply_process_settings(const SamplingSettings& s) {
     CPLSetConfigOption(kv.substr(0, eq).c_str(), kv.substr(eq + 1).c_str());
   }
   if (s.threads > 0) omp_set_num_threads(static_cast<int>(s.threads));
+  // every thread opens every layer once: let the process use the open files its hard limit
+  // allows (the soft limit is often 1,024), as most runtimes do at start
+  rlimit files{};
+  if (getrlimit(RLIMIT_NOFILE, &files) == 0 && files.rlim_cur < files.rlim_max) {
+    files.rlim_cur = files.rlim_max;
+    setrlimit(RLIMIT_NOFILE, &files);
+  }
 }
 
 }  // namespace envsift

@@ -1,5 +1,7 @@
 #include "envsift/write/csv_writer.hpp"
 
+#include "envsift/spreadsheet_cells.hpp"
+
 namespace envsift {
 namespace {
 constexpr std::size_t kWriteBytes = std::size_t(4) << 20;  // one write(2) per 4 MiB
@@ -28,7 +30,8 @@ void CsvWriter::row(const std::vector<std::string>& fields) {
   buffer_.clear();
   for (std::size_t i = 0; i < fields.size(); ++i) {
     if (i) buffer_ += ',';
-    append_csv_field(buffer_, fields[i]);
+    if (style_ == CellStyle::spreadsheet_safe) append_csv_field(buffer_, spreadsheet_safe(fields[i]));
+    else append_csv_field(buffer_, fields[i]);
   }
   buffer_ += '\n';
   lines(buffer_);

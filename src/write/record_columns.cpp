@@ -4,6 +4,7 @@
 #include <string_view>
 
 #include "envsift/reason_codes.hpp"
+#include "envsift/spreadsheet_cells.hpp"
 #include "envsift/write/csv_writer.hpp"
 #include "envsift/write/value_format.hpp"
 
@@ -34,6 +35,7 @@ void each_cell(const RecordTable& t, const RecordOutcome& o, Cell&& cell) {
   auto join = [&](const std::vector<std::string>& parts, std::string_view separator) {
     joined.clear();
     for (const auto& p : parts) (joined.empty() ? joined : joined.append(separator)).append(p);
+    if (starts_like_formula(joined)) joined.insert(0, 1, '\'');  // envsift's own text, never a formula
     cell(std::string_view(joined));
   };
   if (o.codes->empty()) cell(std::string_view(reason::ok));
@@ -45,7 +47,7 @@ void each_cell(const RecordTable& t, const RecordOutcome& o, Cell&& cell) {
   if (v.score) put(put_score(number, *v.score));
   else cell(std::string_view());
   join(v.flags, ";");
-  join(v.reasons, "; ");
+  join(v.reasons, "; ");  // begins with a layer or value column's name: see spreadsheet_cells.hpp
   if (o.with_decisions) {
     cell(std::string_view(decision_name(v.decision)));
     cell(std::string_view(v.decision_note));

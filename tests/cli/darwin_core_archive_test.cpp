@@ -4,6 +4,10 @@
 // folder) must screen like the demo CSV, byte for byte in the columns envsift computes.
 #include <cpl_vsi.h>
 #include <gtest/gtest.h>
+#include <unistd.h>
+
+#include <cstdio>
+#include <filesystem>
 
 #include "../support.hpp"
 
@@ -86,6 +90,58 @@ TEST(DarwinCoreArchive, ABrokenMetaXmlIsNamed) {
   auto r = run(envsift_binary() + " screen -q" + demo_layers() + " --points " + dir + "/broken.zip --out " + dir + "/o.csv");
   EXPECT_EQ(r.exit_code, 3) << r.output;
   EXPECT_NE(r.output.find("broken.zip/meta.xml: has no <archive><core> element"), std::string::npos) << r.output;
+}
+
+// An archive names only its own files: a core location that climbs out (..), is absolute or a URL,
+// or passes through a symbolic link is refused before anything is read — the case seen read
+// /etc/passwd into the output. A location in a subfolder of the archive is its own file and is read.
+TEST(DarwinCoreArchive, ACoreOutsideTheArchiveIsRefused) {
+  const auto dir = temp_dir("dwca-escape");
+  const std::string folder = dir + "/folder", out = dir + "/o.csv";
+  VSIMkdir(folder.c_str(), 0755);
+  VSIMkdir((folder + "/data").c_str(), 0755);
+  const std::string core = "id\tname\tlon\tlat\tunc\telev\tloc\nQM-0001\tOrophila nivicola\t0.47831\t0.6708\t\t\t\n";
+  write_member(folder + "/data/occurrence.txt", core);
+  write_member(dir + "/outside.txt", core);
+  ASSERT_EQ(::symlink((dir + "/outside.txt").c_str(), (folder + "/linked.txt").c_str()), 0);
+  ASSERT_EQ(::symlink(dir.c_str(), (folder + "/up").c_str()), 0);
+  const std::string meta = kMeta;
+  auto with_location = [&](const std::string& location) {
+    std::string m = meta;
+    m.replace(m.find("occurrence.txt"), std::string("occurrence.txt").size(), location);
+    return m;
+  };
+  const std::string screen = envsift_binary() + " sample -q" + demo_layers() + " --points " + folder + " --out " + out;
+  write_member(folder + "/meta.xml", with_location("data/occurrence.txt"));
+  auto r = run(screen);
+  ASSERT_EQ(r.exit_code, 0) << r.output;
+  EXPECT_EQ(read_csv(out).rows.size(), 1u);
+  const std::vector<std::pair<std::string, std::string>> refused = {
+      {"../../../../../../etc/passwd", "climbs out of the archive"},
+      {"data/../../outside.txt", "climbs out of the archive"},
+      {"..\\outside.txt", "climbs out of the archive"},
+      {"/etc/passwd", "is an absolute path or a URL"},
+      {"file:///etc/passwd", "is an absolute path or a URL"},
+      {"linked.txt", "passes through a symbolic link"},
+      {"up/outside.txt", "passes through a symbolic link"},
+  };
+  for (const auto& [location, words] : refused) {
+    SCOPED_TRACE(location);
+    std::remove(out.c_str());
+    write_member(folder + "/meta.xml", with_location(location));
+    r = run(screen);
+    EXPECT_EQ(r.exit_code, 3) << r.output;
+    EXPECT_NE(r.output.find("folder/meta.xml: the core's location"), std::string::npos) << r.output;
+    EXPECT_NE(r.output.find(words), std::string::npos) << r.output;
+    EXPECT_EQ(r.output.find("root:"), std::string::npos) << r.output;
+    EXPECT_FALSE(std::filesystem::exists(out));
+  }
+  // the zipped form: the same locations, refused the same way
+  write_member("/vsizip/" + dir + "/a.zip/meta.xml", with_location("../outside.txt"));
+  write_member("/vsizip/" + dir + "/a.zip/occurrence.txt", core);
+  r = run(envsift_binary() + " sample -q" + demo_layers() + " --points " + dir + "/a.zip --out " + out);
+  EXPECT_EQ(r.exit_code, 3) << r.output;
+  EXPECT_NE(r.output.find("climbs out of the archive"), std::string::npos) << r.output;
 }
 
 }  // namespace

@@ -18,7 +18,10 @@ struct ParsedNumber {
 //   hemisphere letters         "12.5S", "S 12.5", "12.5 w"            note coord_hemisphere
 //   degrees-minutes-seconds    "12°30'15\"S", "12 30 15 S", "12d30m", "12°30.25'"   note coord_dms
 //   a decimal comma            "12,5" (one comma, no point)            note coord_decimal_comma
+//   a minus sign or dash       "−12.5" (U+2212), "–12.5" (en dash) ... note coord_unicode_minus
 // Refused, with a problem code: empty → coord_missing; not a coordinate → coord_not_numeric;
+// a sign in brackets or after the number, "(12.5)", "12.5-" → coord_sign_unclear (never read as
+// plus); other characters between the numbers ("1_0") → coord_not_numeric;
 // N/S on a longitude or E/W on a latitude → coord_wrong_hemisphere; NaN, inf or overflow →
 // coord_not_finite; outside [-90, 90] / [-180, 180] → coord_out_of_range.
 ParsedNumber parse_coordinate(std::string_view text, Axis axis);

@@ -12,6 +12,7 @@
 #include <string>
 #include <vector>
 
+#include "envsift/crs_transform.hpp"
 #include "envsift/detect/range_distance.hpp"
 
 class GDALDataset;
@@ -80,7 +81,7 @@ class RangeLayer {
   RangeSource source_;
   GDALDataset* dataset_ = nullptr;
   OGRLayer* layer_ = nullptr;
-  OGRCoordinateTransformation* to_wgs84_ = nullptr;  // null when the layer is WGS 84 already
+  CrsTransformation to_wgs84_;  // null when the layer is WGS 84 already
   double segment_ = 0;  // a projected layer's edges are densified to this length (its units) first
   std::map<std::string, std::vector<std::int64_t>> features_;  // taxon → feature IDs
   std::vector<std::string> notes_;

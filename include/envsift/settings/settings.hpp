@@ -24,6 +24,9 @@ struct InputSettings {
   std::vector<std::string> circular;       // layers holding directions in degrees (besides those named so)
 };
 
+// The most threads a run may use (--threads): each keeps a handle on every layer.
+inline constexpr std::size_t kMaxThreads = 256;
+
 struct SamplingSettings {
   std::string method = "nearest";          // nearest | bilinear
   bool discs = true;                       // sample uncertainty discs
@@ -32,7 +35,7 @@ struct SamplingSettings {
   std::size_t block_cache_mb = 256;        // decoded raster blocks (at most a quarter of the limit)
   std::size_t memory_limit_mb = 4096;      // bounds the cache and the sampling chunks
   std::vector<std::string> gdal_config;    // KEY=VALUE
-  std::size_t threads = 0;                 // 0: all cores; results do not depend on it
+  std::size_t threads = 0;                 // 0: all cores; results do not depend on it; at most kMaxThreads
 };
 
 // Settings shared by several tests exist once here; a test's own are beside them, named after it.

@@ -8,9 +8,14 @@
 
 namespace envsift {
 
+// as_is: every cell byte for byte (the main output, whose fields are the input's own);
+// spreadsheet_safe: formula-like cells neutralised (spreadsheet_cells.hpp), for files that are
+// made to be opened in a spreadsheet.
+enum class CellStyle { as_is, spreadsheet_safe };
+
 class CsvWriter {
  public:
-  explicit CsvWriter(std::string path) : file_(std::move(path)) {}
+  explicit CsvWriter(std::string path, CellStyle style = CellStyle::as_is) : file_(std::move(path)), style_(style) {}
   void row(const std::vector<std::string>& fields);
   // Rows already encoded (append_record_csv), gathered into large writes.
   void lines(std::string_view text);
@@ -23,6 +28,7 @@ class CsvWriter {
  private:
   AtomicFile file_;
   std::string buffer_, pending_;
+  CellStyle style_;
   bool finished_ = false;
 };
 

@@ -17,7 +17,7 @@ namespace {
 
 class DecisionsTemplateOutput : public RecordSink {
  public:
-  explicit DecisionsTemplateOutput(const std::string& path) : out_(path) {}
+  explicit DecisionsTemplateOutput(const std::string& path) : out_(path, CellStyle::spreadsheet_safe) {}
   std::string name() const override { return "decisions-template"; }
 
   void begin(const RunContext& run) override {

@@ -14,7 +14,7 @@ namespace {
 
 class SummaryOutput : public RecordSink {
  public:
-  explicit SummaryOutput(const std::string& path) : out_(path) {}
+  explicit SummaryOutput(const std::string& path) : out_(path, CellStyle::spreadsheet_safe) {}
   std::string name() const override { return "summary"; }
   void begin(const RunContext& run) override {
     names_ = run.tests ? run.tests->names() : std::vector<std::string>{};

@@ -1,0 +1,104 @@
+// A coordinate's sign as the trade writes it, or a refusal; never a minus read as a plus. The
+// characters come from Unicode's character database through Python's unicodedata module (Debian's
+// python3): every dash (general category Pd) and every character whose name holds MINUS. The
+// accounting-style "(0.2)" and the trailing "0.2-" are conventions of spreadsheets and
+// accounting printouts (common practice), which readers disagree on; envsift refuses them.
+#include <gtest/gtest.h>
+
+#include <cmath>
+
+#include "../support.hpp"
+#include "envsift/read/coordinates.hpp"
+#include "envsift/reason_codes.hpp"
+
+namespace envsift {
+namespace {
+
+using namespace envsift::testing;
+
+// The characters, each as its UTF-8 text, from Python's unicodedata.
+std::vector<std::pair<std::string, std::string>> minus_and_dash_characters() {
+  const auto r = run("python3 -c 'import sys, unicodedata\n"
+                     "for c in map(chr, range(sys.maxunicode + 1)):\n"
+                     "  n = unicodedata.name(c, \"\")\n"
+                     "  if unicodedata.category(c) == \"Pd\" or \"MINUS\" in n: print(c.encode().hex(), n.replace(\" \", \"_\"))'");
+  EXPECT_EQ(r.exit_code, 0) << r.output;
+  std::vector<std::pair<std::string, std::string>> out;
+  std::istringstream lines(r.output);
+  for (std::string hex, name; lines >> hex >> name;) {
+    std::string utf8;
+    for (std::size_t i = 0; i + 1 < hex.size(); i += 2) utf8 += static_cast<char>(std::stoi(hex.substr(i, 2), nullptr, 16));
+    out.emplace_back(utf8, name);
+  }
+  return out;
+}
+
+TEST(CoordinateSigns, NoMinusSignOrDashIsEverReadAsPlus) {
+  const auto characters = minus_and_dash_characters();
+  ASSERT_GT(characters.size(), 25u);  // Unicode 14 has 26 dashes alone
+  std::size_t read_as_minus = 0;
+  for (const auto& [c, name] : characters) {
+    SCOPED_TRACE(name);
+    for (const std::string& text : {c + "0.2", c + "12\u00B030'S", c + " 0.2"}) {
+      const ParsedNumber p = parse_coordinate(text, Axis::latitude);
+      if (p.problem.empty()) {
+        EXPECT_LT(p.value, 0) << text;  // minus, or refused
+      }
+    }
+    const ParsedNumber leading = parse_coordinate(c + "0.2", Axis::longitude);
+    if (leading.problem.empty()) {
+      ++read_as_minus;
+      EXPECT_DOUBLE_EQ(leading.value, -0.2);
+      EXPECT_EQ(leading.note, c == "-" ? "" : reason::coord_unicode_minus);
+    }
+    const ParsedNumber trailing = parse_coordinate("0.2" + c, Axis::longitude);  // after the number: never a plus
+    EXPECT_FALSE(trailing.problem.empty()) << "0.2" << c << " read as " << trailing.value;
+  }
+  EXPECT_GE(read_as_minus, 8u);
+  // the two the issue names: U+2212 MINUS SIGN and U+2013 EN DASH
+  EXPECT_DOUBLE_EQ(parse_coordinate("\u22120.2", Axis::longitude).value, -0.2);
+  EXPECT_DOUBLE_EQ(parse_coordinate("\u20130.2", Axis::longitude).value, -0.2);
+}
+
+TEST(CoordinateSigns, SignsReadersDisagreeOnAreRefused) {
+  for (const char* text : {"(0.2)", "(12.5)", "0.2-", "12.5+", "12\u00B030'-"}) {
+    SCOPED_TRACE(text);
+    EXPECT_EQ(parse_coordinate(text, Axis::longitude).problem, reason::coord_sign_unclear);
+  }
+  // characters between the numbers that are no degree, minute or second mark: not a coordinate
+  for (const char* text : {"1_0", "1(0", "12-30-15", "12,30,15", "12\u00A730", "1/2", "0.2\u00960"}) {
+    SCOPED_TRACE(text);
+    EXPECT_EQ(parse_coordinate(text, Axis::longitude).problem, reason::coord_not_numeric);
+  }
+  // the forms that were read before still are
+  EXPECT_DOUBLE_EQ(parse_coordinate("-0.2", Axis::longitude).value, -0.2);
+  EXPECT_DOUBLE_EQ(parse_coordinate("+0.2", Axis::longitude).value, 0.2);
+  EXPECT_NEAR(parse_coordinate("12\u00B030\u203215\u2033S", Axis::latitude).value, -(12 + 30 / 60.0 + 15 / 3600.0), 1e-12);
+  EXPECT_NEAR(parse_coordinate("12d 30m 15s", Axis::latitude).value, 12 + 30 / 60.0 + 15 / 3600.0, 1e-12);
+  EXPECT_NEAR(parse_coordinate("12\u00B030\u2019 15\u201D W", Axis::longitude).value, -(12 + 30 / 60.0 + 15 / 3600.0), 1e-12);
+  EXPECT_NEAR(parse_coordinate("-12:30:15", Axis::longitude).value, -(12 + 30 / 60.0 + 15 / 3600.0), 1e-12);
+}
+
+// 0/0 is what broken exports write for "no coordinates" (common practice: data portals flag it);
+// it is coded, not sampled. Through the whole reader, as a user's file.
+TEST(CoordinateSigns, ZeroZeroIsCodedAndNotSampled) {
+  const auto dir = temp_dir("zero-zero");
+  write_file(dir + "/p.csv", "occurrenceID,scientificName,decimalLongitude,decimalLatitude\n"
+                             "A,Orophila nivicola,0,0\nB,Orophila nivicola,0.0,-0.00\nC,Orophila nivicola,0.47831,0.6708\n"
+                             "D,Orophila nivicola,\u22120.2,0.5\nE,Orophila nivicola,-0.2,0.5\n");
+  const auto r = run(envsift_binary() + " sample -q" + demo_layers() + " --points " + dir + "/p.csv --out " + dir + "/o.csv");
+  ASSERT_EQ(r.exit_code, 0) << r.output;
+  const auto rows = by_id(read_csv(dir + "/o.csv"));
+  const Table t = read_csv(dir + "/o.csv");
+  EXPECT_EQ(rows.at("A")[t.column("status")], reason::coord_zero_zero);
+  EXPECT_EQ(rows.at("B")[t.column("status")], reason::coord_zero_zero);
+  EXPECT_EQ(rows.at("A")[t.column("dem")], "");
+  EXPECT_EQ(rows.at("C")[t.column("status")], "ok");
+  // the U+2212 record is sampled where the hyphen-minus record is
+  EXPECT_EQ(rows.at("D")[t.column("status")].find(reason::coord_unicode_minus), 0u);
+  for (const char* layer : {"dem", "temperature", "rainfall", "dry_months"})
+    EXPECT_EQ(rows.at("D")[t.column(layer)], rows.at("E")[t.column(layer)]) << layer;
+}
+
+}  // namespace
+}  // namespace envsift
