@@ -150,8 +150,8 @@ const std::vector<OptionSpec>& sampling_options() {
     // 0 (unset) is every core; each thread keeps its own handle on every layer, so the count is
     // bounded to keep open files and thread stacks within what a machine gives a process
     v.push_back(count_option("threads", "N",
-                             "threads to use, 1 to " + std::to_string(kMaxThreads) +
-                                 " (default: all cores); results do not depend on it",
+                             "threads to use, at most " + std::to_string(kMaxThreads) +
+                                 " (0, the default: all cores); results do not depend on it",
                              [](ScreenSettings& s) -> std::size_t& { return s.sampling.threads; }, between(0, kMaxThreads)));
     v.back().get = [](const ScreenSettings& s) { return s.sampling.threads ? std::to_string(s.sampling.threads) : std::string(); };
     v.push_back(count_option("block-cache-mb", "MB", "memory for decoded raster blocks (at most a quarter of --memory-limit)",

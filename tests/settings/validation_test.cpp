@@ -56,6 +56,7 @@ TEST(Validation, EmbeddingAndCommandLineGetTheSameMessage) {
       {"--tests robust_z,gap", [](ScreenSettings& s) { s.tests.tests = {"robust_z", "gap"}; }},
       {"--scale log", [](ScreenSettings& s) { s.tests.scale = "log"; }},
       {"--elevation-tolerance 0 --dem dem", [](ScreenSettings& s) { s.elevation.tolerance_m = 0, s.elevation.dem_layer = "dem"; }},
+      {"--threads 100000", [](ScreenSettings& s) { s.sampling.threads = 100000; }},  // crashed the OpenMP runtime
       {"--order rank --shard 0/2",
        [](ScreenSettings& s) { s.outputs.order = "rank", s.outputs.shard_index = 0, s.outputs.shard_count = 2; }},
   };

@@ -1,5 +1,7 @@
-// Outputs that would destroy something: an output that is the same file as an input (the points
-// or a layer, compared by device and inode, not by name), two outputs that are one file, and an
+// Outputs that would destroy something: an output that is the same file as an input or as any
+// file an input is made of (compared by device and inode, and by resolved path for side files
+// that do not exist yet: a .grd's .gri, a Shapefile's .dbf, an .aux.xml GDAL may write, a Darwin
+// Core Archive folder's meta.xml and core), two outputs that are one file, and an
 // output path that exists and is not a regular file (a device, FIFO, directory or symbolic link,
 // which renaming the finished output over it would replace).
 #pragma once
@@ -13,6 +15,7 @@ namespace envsift {
 // A path as the command line named it: the option ("--out") and the path.
 struct NamedPath {
   std::string option, path;
+  std::string named = {};  // for a file an input is made of (a .grd's .gri): the input as the user named it
 };
 
 // Throws UsageError naming the two paths that collide, or the path that is not a file, and what to do.
