@@ -11,6 +11,7 @@
 #include "envsift/run/run.hpp"
 #include "envsift/score/scoring.hpp"
 #include "envsift/write/csv_writer.hpp"
+#include "shard_runs.hpp"
 
 namespace envsift {
 
@@ -23,6 +24,7 @@ RunSummary merge_shards(const std::vector<std::string>& paths, const std::string
   std::vector<NamedPath> inputs;
   for (const auto& p : paths) inputs.push_back({"a shard output", p});
   refuse_unsafe_outputs({{"--out", out_path}}, inputs);
+  run::check_shards_of_one_run(paths);
   std::vector<Shard> shards(paths.size());
   std::vector<std::string> header;
   auto open_all = [&]() {

@@ -8,6 +8,7 @@
 #include "envsift/settings/run_options.hpp"
 #include "envsift/write/output_registry.hpp"
 #include "envsift/write/record_columns.hpp"
+#include "envsift/write/run_manifest.hpp"
 #include "steps.hpp"
 
 namespace envsift {
@@ -43,7 +44,10 @@ RunSummary run_sample(const ScreenSettings& s) {
   return summary;
 }
 
-RunSummary run_screen(const ScreenSettings& s, const std::vector<RecordSink*>& extra_outputs) {
+RunSummary run_screen(const ScreenSettings& settings, const std::vector<RecordSink*>& extra_outputs) {
+  ScreenSettings s = settings;
+  if (s.outputs.shard_count > 1 && s.outputs.manifest.empty() && !s.outputs.out.empty())
+    s.outputs.manifest = shard_manifest_path(s.outputs.out);  // what `merge` checks the shards by
   validate(s);
   refuse_unsafe_outputs(s, false);
   apply_process_settings(s.sampling);

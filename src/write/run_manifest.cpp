@@ -37,6 +37,8 @@ std::string sha256_of_file(const std::string& path) {
   return hex;
 }
 
+std::string shard_manifest_path(const std::string& out) { return out + ".manifest.json"; }
+
 namespace {
 
 nlohmann::json file_entry(const std::string& path) {
@@ -84,6 +86,7 @@ std::string manifest_json(const RunManifest& m) {
     d["records_decided"] = counts;
     j["decisions"] = d;
   }
+  if (!m.ranges.empty()) j["ranges"] = file_entry(m.ranges);
   nlohmann::ordered_json seconds = nlohmann::ordered_json::object();
   for (const auto& [stage, s] : m.seconds) seconds[stage] = s;
   j["seconds"] = seconds;
@@ -100,7 +103,7 @@ RunManifest make_manifest(const RunContext& run, const RunSummary& summary) {
   m.seed = run.screened() ? s.tests.seed : 0;
   m.threads = omp_get_max_threads();
   m.seconds = summary.seconds;
-  if (run.screened()) m.decisions = s.review.decisions, m.decided = summary.decided;
+  if (run.screened()) m.decisions = s.review.decisions, m.decided = summary.decided, m.ranges = s.ranges.path;
   return m;
 }
 

@@ -24,6 +24,7 @@ struct RunManifest {
   int threads = 1;
   std::vector<std::pair<std::string, double>> seconds;       // time per stage
   std::string decisions;                                     // --decisions file, "" for none
+  std::string ranges;                                        // --ranges file, "" for none
   std::map<std::string, std::size_t> decided;                // records per decision applied
 };
 
@@ -33,6 +34,10 @@ RunManifest make_manifest(const RunContext& run, const RunSummary& summary);
 
 // The manifest as JSON text (also embedded in the HTML report).
 std::string manifest_json(const RunManifest& manifest);
+
+// Where a shard run (--shard I/N) writes its manifest when --manifest is not given: beside its
+// output, so that `merge` can check that the shards come from one run.
+std::string shard_manifest_path(const std::string& out);
 
 // Lower-case hex SHA-256 of a file's bytes (FIPS 180-4, computed by OpenSSL).
 std::string sha256_of_file(const std::string& path);
