@@ -12,6 +12,7 @@ enum class ExitCode : int {
   bad_input = 3,     // an input file is missing, unreadable or malformed
   output_failed = 4, // an output could not be written
   internal = 5,      // a bug in envsift: please report it
+  out_of_memory = 6, // the run needed more memory than it could get
 };
 
 class Error : public std::runtime_error {

@@ -8,12 +8,13 @@
 #include "envsift/run_summary.hpp"
 #include "envsift/sample/raster_stack.hpp"
 #include "envsift/settings/memory_estimate.hpp"
+#include "envsift/settings/option_spec.hpp"
 #include "options.hpp"
 
 namespace envsift::cli {
 
 int estimate_command(int argc, char** argv) {
-  std::size_t records = 0, taxa = 0, memory_limit = SamplingSettings{}.memory_limit_mb;
+  std::string records_text, taxa_text = "0", memory_limit_text = std::to_string(SamplingSettings{}.memory_limit_mb);
   std::vector<std::string> layers;
   bool discs = false, no_landscape = false;
   po::options_description d(
@@ -23,16 +24,22 @@ int estimate_command(int argc, char** argv) {
       "Options",
       100, 50);
   d.add_options()
-    ("records", po::value(&records)->required()->value_name("N"), "records in the points file")
+    ("records", po::value(&records_text)->required()->value_name("N"), "records in the points file")
     ("layers", po::value(&layers)->required()->multitoken()->value_name("FILE..."), "the layers the screen samples")
-    ("taxa", po::value(&taxa)->value_name("K"), "taxa among them (default: one per 500 records)")
+    ("taxa", po::value(&taxa_text)->value_name("K"), "taxa among them (default: one per 500 records)")
     ("discs", po::bool_switch(&discs), "the records have uncertainty discs (a coordinateUncertaintyInMeters column)")
     ("no-landscape", po::bool_switch(&no_landscape), "the screen does not run the landscape test")
-    ("memory-limit", po::value(&memory_limit)->value_name("MB"), "the screen's --memory-limit")
+    ("memory-limit", po::value(&memory_limit_text)->value_name("MB"), "the screen's --memory-limit")
     ("help,h", "show this help");
   po::variables_map vm;
   if (!parse(argc, argv, "estimate", "--records N --layers FILE... [options]", d, vm, nullptr, &d)) return 0;
-  if (records == 0) throw UsageError("--records must be at least 1");
+  // a trillion records is far beyond any collection; beyond it the byte counts would overflow
+  constexpr unsigned long long kMostRecords = 1'000'000'000'000ull;
+  const std::size_t records = parse_whole("records", records_text), taxa = parse_whole("taxa", taxa_text),
+                    memory_limit = parse_whole("memory-limit", memory_limit_text);
+  if (records == 0 || records > kMostRecords)
+    throw UsageError("--records must be between 1 and " + with_thousands(kMostRecords) + ", not " + records_text);
+  if (memory_limit < 16) throw UsageError("--memory-limit must be at least 16, not " + memory_limit_text);
   RasterStack stack(expand_layer_arguments(layers));
   RunShape shape;
   shape.records = records;

@@ -1,6 +1,7 @@
 // envsift: screen species occurrence records against environmental rasters.
 #include <cpl_error.h>
 #include <csignal>
+#include <new>
 #include <cstring>
 #include <iostream>
 #include <string>
@@ -8,6 +9,7 @@
 #include "commands.hpp"
 #include "envsift/errors.hpp"
 #include "envsift/write/atomic_file.hpp"
+#include "options.hpp"
 
 namespace {
 
@@ -25,7 +27,7 @@ const char* kUsage =
     "\n"
     "Flags are reasons to look, not proof of error: review flagged records before removing any.\n"
     "exit codes: 0 ok, 2 bad command line, 3 bad input, 4 output not written, 5 internal error,\n"
-    "            130/143 interrupted (SIGINT/SIGTERM; no partial output is left)\n";
+    "            6 out of memory, 130/143 interrupted (SIGINT/SIGTERM; no partial output is left)\n";
 
 void quiet_gdal_handler(CPLErr, CPLErrorNum, const char*) {}  // envsift reports errors itself
 
@@ -55,12 +57,18 @@ int main(int argc, char** argv) {
     std::cerr << "envsift: error: unknown command '" << command << "'; use sample, screen, merge, evaluate or estimate (envsift --help)\n";
     return static_cast<int>(ExitCode::usage);
   } catch (const envsift::Error& e) {
-    std::cerr << "envsift: error: " << e.what()
+    std::cerr << "envsift: error: " << envsift::cli::terminal_safe(e.what())
               << (e.code() == ExitCode::output_failed ? " (no output was written: every partial file was removed)" : "")
               << "\n";
     return static_cast<int>(e.code());
+  } catch (const std::bad_alloc&) {
+    std::cerr << "envsift: error: out of memory: the run needs more memory than this machine or its limits give "
+                 "(envsift estimate --records N --layers ... tells what a screen needs); run where there is more memory, or "
+                 "split the points file by taxon and screen the parts (no output was written)\n";
+    return static_cast<int>(ExitCode::out_of_memory);
   } catch (const std::exception& e) {
-    std::cerr << "envsift: internal error: " << e.what() << "; please report it with the command line used\n";
+    std::cerr << "envsift: internal error: " << envsift::cli::terminal_safe(e.what())
+              << "; please report it with the command line used\n";
     return static_cast<int>(ExitCode::internal);
   }
 }

@@ -84,7 +84,20 @@ bool parse(int argc, char** argv, const std::string& command, const std::string&
     po::command_line_parser parser(argc, argv);
     parser.options(options);
     if (positional) parser.positional(*positional);
-    po::store(parser.run(), vm);
+    const po::parsed_options parsed = parser.run();
+    // an option whose value is missing takes the next option's name as its value
+    for (const auto& o : parsed.options)
+      for (const auto& value : o.value)
+        if (value.size() > 2 && value.compare(0, 2, "--") == 0 && options.find_nothrow(value.substr(2, value.find('=') - 2), false))
+          throw UsageError("--" + o.string_key + " has no value: " + value + " follows it; give the value right after --" +
+                           o.string_key + " (see 'envsift " + command + " --help')");
+    // words that belong to no option (Boost keeps them quietly): a value given twice, or a
+    // misplaced one, would otherwise be ignored without a word
+    if (!positional)
+      for (const auto& stray : po::collect_unrecognized(parsed.options, po::include_positional))
+        throw UsageError("unexpected argument '" + stray + "': every value follows its option (e.g. --layers A.tif B.tif); see 'envsift " +
+                         command + " --help'");
+    po::store(parsed, vm);
     po::notify(vm);
   } catch (const po::unknown_option& e) {
     const std::string near = closest_option(e.get_option_name(), options);
@@ -115,10 +128,29 @@ std::string command_line(const std::string& command, int argc, char** argv) {
   return line;
 }
 
+std::string terminal_safe(const std::string& message) {
+  static const char* hex = "0123456789abcdef";
+  std::string out;
+  for (std::size_t i = 0; i < message.size(); ++i) {
+    const auto c = static_cast<unsigned char>(message[i]);
+    const bool c1 = c == 0xC2 && i + 1 < message.size() && static_cast<unsigned char>(message[i + 1]) >= 0x80 &&
+                    static_cast<unsigned char>(message[i + 1]) <= 0x9F;  // U+0080-U+009F in UTF-8
+    if (c >= 0x20 && c != 0x7F && !c1) {
+      out += message[i];
+      continue;
+    }
+    const auto shown = c1 ? static_cast<unsigned char>(message[++i]) : c;
+    out += "\\x";
+    out += hex[shown >> 4];
+    out += hex[shown & 15];
+  }
+  return out;
+}
+
 void report(const RunSummary& summary, const po::variables_map& vm, const std::string& wrote) {
   constexpr std::size_t kShown = 20;  // thousands of taxa can each warn; the rest are in the status codes
   for (std::size_t i = 0; i < summary.warnings.size() && i < kShown; ++i)
-    std::cerr << "envsift: warning: " << summary.warnings[i] << "\n";
+    std::cerr << "envsift: warning: " << terminal_safe(summary.warnings[i]) << "\n";
   if (summary.warnings.size() > kShown)
     std::cerr << "envsift: warning: " << summary.warnings.size() - kShown
               << " more warnings like these (every record concerned carries its reason code in `status`)\n";
@@ -129,7 +161,8 @@ void report(const RunSummary& summary, const po::variables_map& vm, const std::s
     std::cerr << "envsift: memory: peak resident " << with_thousands(static_cast<std::size_t>(usage.ru_maxrss) / 1024)
               << " MB; estimated " << (summary.memory.empty() ? std::string("(none)") : summary.memory) << "\n";
   }
-  std::cerr << summary.codes_line() << "\n" << summary.line() << "\nenvsift: wrote " << wrote << "\n";
+  std::cerr << terminal_safe(summary.codes_line()) << "\n" << terminal_safe(summary.line()) << "\nenvsift: wrote "
+            << terminal_safe(wrote) << "\n";
 }
 
 }  // namespace envsift::cli

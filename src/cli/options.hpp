@@ -35,6 +35,11 @@ void apply_declared(const po::variables_map& vm, const std::vector<OptionSpec>& 
 // "envsift COMMAND ARGS...", for the run manifest.
 std::string command_line(const std::string& command, int argc, char** argv);
 
+// A message as it may reach a terminal: control characters (C0, DEL and the C1 range, which
+// input files can carry in a column name or a taxon) written as \xNN, so that no escape sequence
+// from a file is run by the terminal.
+std::string terminal_safe(const std::string& message);
+
 // Warnings, timings (with --timings), reason-code counts and the record accounting, on stderr.
 void report(const RunSummary& summary, const po::variables_map& vm, const std::string& wrote);
 

@@ -41,8 +41,13 @@ bool CsvReader::next(std::vector<std::string>& fields, std::size_t& line) {
   bool quoted = false;      // inside a quoted section
   bool was_quoted = false;  // field began with a quote
   std::size_t quote_line = 0;
+  std::size_t record_bytes = 0;
   for (;;) {
     int c = get();
+    if (++record_bytes > kMaxRecordBytes)
+      throw InputError(source_, line, "a record longer than " + std::to_string(kMaxRecordBytes >> 20) +
+                                          " MiB (one line without a line break, or a quoted field that never closes)",
+                       "check that this is a points file, with one record per line");
     if (c == 0)
       throw InputError(source_, line_, "a NUL byte: this is not a text file (or it is UTF-16 without a byte-order mark)",
                        "check the file, or save it as UTF-8 text");

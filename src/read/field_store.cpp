@@ -41,7 +41,9 @@ std::string temp_dir() {
 FieldStore::FieldStore(std::size_t memory_bytes) : memory_bytes_(std::max(kChunk, memory_bytes)) {
   std::string path = temp_dir() + "/envsift-fields-XXXXXX";
   fd_ = ::mkstemp(path.data());
-  if (fd_ < 0) throw OutputError(path, std::string("cannot create a temporary file (") + std::strerror(errno) + "); set TMPDIR to a writable directory");
+  if (fd_ < 0)
+    throw OutputError(temp_dir() + " (TMPDIR)", std::string("cannot create a temporary file there (") + std::strerror(errno) +
+                                                  "); set TMPDIR to a writable directory");
   ::unlink(path.c_str());  // gone when the process ends, however it ends
 }
 
@@ -76,8 +78,17 @@ void FieldStore::append(const std::vector<std::string>& fields) {
     pending_ += f;
   }
   if (pending_.size() >= memory_bytes_) {
-    if (::pwrite(fd_, pending_.data(), pending_.size(), static_cast<off_t>(end_)) != static_cast<ssize_t>(pending_.size()))
-      throw OutputError("$TMPDIR", std::string("cannot write the temporary copy of the records (") + std::strerror(errno) + ")");
+    for (std::size_t done = 0; done < pending_.size();) {  // pwrite may write part of it: the rest, or why not
+      const ssize_t n = ::pwrite(fd_, pending_.data() + done, pending_.size() - done, static_cast<off_t>(end_ + done));
+      if (n <= 0) {
+        const int err = n == 0 ? ENOSPC : errno;  // nothing written and no error: the disk is full
+        throw OutputError(temp_dir() + " (TMPDIR)",
+                          std::string("cannot write the temporary copy of the records (") + std::strerror(err) +
+                              "); free space there, or set TMPDIR to a directory with room for about the points "
+                              "file's size");
+      }
+      done += static_cast<std::size_t>(n);
+    }
     end_ += pending_.size();
     pending_.clear();
   }

@@ -36,10 +36,32 @@ std::optional<std::size_t> find_column(const std::vector<std::string>& columns, 
   return found;
 }
 
-
-
-
 ColumnIndex locate_columns(const PointTable& table, const ReaderOptions& o) {
+  // every output column needs its own name, so the header may not repeat one
+  for (std::size_t i = 0; i < table.columns.size(); ++i)
+    for (std::size_t j = 0; j < i; ++j)
+      if (table.columns[i] == table.columns[j])
+        throw InputError(table.source, 1,
+                         "the header names two columns '" + table.columns[i] + "' (columns " + std::to_string(j + 1) + " and " +
+                             std::to_string(i + 1) + ")",
+                         "rename one of them in the file: every column of the output needs its own name");
+  // a name that matches several columns once letter case is ignored is not guessed at
+  auto refuse_ambiguous = [&](const std::string& name, const std::string& role, const std::string& option) {
+    if (name.empty() || std::find(table.columns.begin(), table.columns.end(), name) != table.columns.end()) return;
+    std::vector<std::string> alike;
+    for (const auto& c : table.columns)
+      if (lower(c) == lower(name)) alike.push_back(c);
+    if (alike.size() > 1)
+      throw InputError(table.source, 1,
+                       "columns " + list_columns(alike) + " could each be the " + role + " column '" + name +
+                           "' (they differ from it only in letter case)",
+                       "name the one to use exactly with " + option);
+  };
+  refuse_ambiguous(o.columns.longitude, "longitude", "--longitude-column");
+  refuse_ambiguous(o.columns.latitude, "latitude", "--latitude-column");
+  refuse_ambiguous(o.columns.id, "record identifier", "--id-column");
+  refuse_ambiguous(o.columns.uncertainty, "coordinate uncertainty", "--uncertainty-column");
+  refuse_ambiguous(o.columns.taxon, "taxon", "--taxon-column");
   auto required = [&](const std::string& name, const std::string& role, const std::string& option) {
     auto i = find_column(table.columns, name);
     if (!i)

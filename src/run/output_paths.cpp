@@ -35,6 +35,10 @@ std::string where(const std::string& path) {
 void add_dataset_files(const std::string& option, const std::string& path, unsigned kind, std::vector<NamedPath>& inputs) {
   inputs.push_back({option, path});
   inputs.push_back({option, path + ".aux.xml", path});
+  // only files on this machine: a pipe would lose the bytes GDAL reads to identify it, and a
+  // /vsicurl/ address has no companions here
+  std::error_code ec;
+  if (!std::filesystem::is_regular_file(path, ec) && !std::filesystem::is_directory(path, ec)) return;
   CPLErrorHandlerPusher quiet(CPLQuietErrorHandler);  // a file GDAL cannot open is refused later, with the reason
   std::unique_ptr<GDALDataset> ds(GDALDataset::Open(path.c_str(), kind | GDAL_OF_READONLY));
   if (!ds) return;

@@ -27,14 +27,6 @@ double parse_real(const std::string& option, const std::string& text) {
   return v;
 }
 
-unsigned long long parse_whole(const std::string& option, const std::string& text) {
-  char* end = nullptr;
-  errno = 0;
-  const unsigned long long v = std::strtoull(text.c_str(), &end, 10);
-  if (text.empty() || text[0] == '-' || *end != '\0' || errno == ERANGE)
-    throw UsageError("--" + option + " takes a whole number, not '" + text + "'");
-  return v;
-}
 
 std::string bound_words(const Bounds& b) {
   auto low = [&] { return (b.low_open ? "above " : "at least ") + number_text(*b.low); };
@@ -61,6 +53,15 @@ std::function<std::string(const ScreenSettings&)> bounds_check(std::function<dou
 }
 
 }  // namespace
+
+unsigned long long parse_whole(const std::string& option, const std::string& text) {
+  char* end = nullptr;
+  errno = 0;
+  const unsigned long long v = std::strtoull(text.c_str(), &end, 10);
+  if (text.empty() || text[0] == '-' || *end != '\0' || errno == ERANGE)
+    throw UsageError("--" + option + " takes a whole number (0, 1, 2, ...), not '" + text + "'");
+  return v;
+}
 
 Bounds above(double low) { return {low, std::nullopt, true, false}; }
 Bounds at_least(double low) { return {low, std::nullopt, false, false}; }

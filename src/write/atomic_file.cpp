@@ -5,6 +5,8 @@
 #include <csignal>
 #include <cstdlib>
 #include <cstring>
+#include <filesystem>
+#include <signal.h>
 #include <unistd.h>
 
 #include "envsift/errors.hpp"
@@ -57,8 +59,48 @@ void remove_partial_outputs_on_signal() {
     if (std::signal(s, on_signal) == SIG_IGN) std::signal(s, SIG_IGN);  // keep what nohup & co. ignore
 }
 
+namespace {
+
+// This machine's name, as the temporary names carry it (without the tag's own separator).
+std::string host_tag() {
+  char host[256] = {};
+  if (::gethostname(host, sizeof host - 1) != 0 || !*host) std::strcpy(host, "host");
+  for (char* c = host; *c; ++c)
+    if (*c == '/' || *c == '-') *c = '_';
+  return host;
+}
+
+// "HOST-PID": a temporary name no other process, here or on another machine sharing the folder, uses.
+std::string partial_tag() { return host_tag() + "-" + std::to_string(::getpid()); }
+
+// Temporary files of this target left by runs on this machine that no longer exist (killed with
+// SIGKILL, or by the machine going down, so that no handler could remove them): removed, so they
+// do not pile up (they can be as large as the output). A file of a live process is left alone.
+void remove_stale_partials(const std::string& target) {
+  namespace fs = std::filesystem;
+  const fs::path t(target);
+  const std::string prefix = t.filename().string() + ".partial-";
+  const std::string mine = host_tag();
+  std::error_code ec;
+  const fs::path dir = t.has_parent_path() ? t.parent_path() : fs::path(".");
+  for (fs::directory_iterator it(dir, ec), end; !ec && it != end; it.increment(ec)) {
+    const std::string name = it->path().filename().string();
+    if (name.compare(0, prefix.size(), prefix) != 0) continue;
+    const std::string tag = name.substr(prefix.size());
+    const auto dash = tag.find('-');
+    if (dash == std::string::npos || tag.substr(0, dash) != mine) continue;  // another machine's: it may be running
+    char* end_of_pid = nullptr;
+    const long pid = std::strtol(tag.c_str() + dash + 1, &end_of_pid, 10);
+    if (pid <= 0 || end_of_pid == tag.c_str() + dash + 1 || pid == ::getpid()) continue;
+    if (::kill(static_cast<pid_t>(pid), 0) == -1 && errno == ESRCH) fs::remove(it->path(), ec);
+  }
+}
+
+}  // namespace
+
 TemporaryPath::TemporaryPath(std::string target, const std::string& suffix)
-    : target_(std::move(target)), temporary_(target_ + ".partial-" + std::to_string(::getpid()) + suffix) {
+    : target_(std::move(target)), temporary_(target_ + ".partial-" + partial_tag() + suffix) {
+  remove_stale_partials(target_);
   slots_.push_back(remember_partial(temporary_));
   for (const char* side : kSideFiles) slots_.push_back(remember_partial(temporary_ + side));
 }

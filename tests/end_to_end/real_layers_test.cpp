@@ -10,6 +10,7 @@
 // Checked: every run succeeds, every record appears once with a status, the output is the same
 // byte for byte on every run and thread count, and a layer value equals gdallocationinfo's.
 #include <gtest/gtest.h>
+#include <unistd.h>
 
 #include <filesystem>
 #include <set>
@@ -26,7 +27,7 @@ const std::string kTerra = "/usr/lib/R/site-library/terra/ex";
 class RealLayers : public ::testing::Test {
  protected:
   static void SetUpTestSuite() {
-    dir_ = temp_dir("real-layers");
+    dir_ = temp_dir("real-layers-" + std::to_string(::getpid()));  // ctest runs each test in a process of its own
     const auto points = run("Rscript -e 'm <- readRDS(\"" + kTerra + "/meuse.rds\"); write.csv(data.frame(occurrenceID = "
                             "paste0(\"meuse-\", seq_len(nrow(m))), scientificName = paste(\"soil type\", m$soil), x = m$x, "
                             "y = m$y, elev = m$elev), \"" + dir_ + "/meuse.csv\", row.names = FALSE)'");

@@ -15,10 +15,14 @@ enum class Quoting { rfc4180, literal };
 
 class CsvReader {
  public:
+  // The longest record read (64 MiB): far beyond any occurrence record, short of exhausting memory
+  // on a file that is not a points file (a compressed file of one endless line).
+  static constexpr std::size_t kMaxRecordBytes = std::size_t(64) << 20;
+
   CsvReader(std::istream& in, char delimiter, std::string source_name, Quoting quoting = Quoting::rfc4180);
 
   // Reads the next record into `fields`. Returns false at end of input. `line` is set to the
-  // 1-based line number where the record starts. Throws InputError on an unterminated quote.
+  // 1-based line number where the record starts. Throws InputError on an unterminated quote or a record over kMaxRecordBytes.
   bool next(std::vector<std::string>& fields, std::size_t& line);
   // The line the last record read ended on (after `line` when a quoted field held a line break).
   std::size_t last_line() const { return line_ - 1; }

@@ -54,6 +54,9 @@ OptionSpec list_option(std::string name, std::string value_name, std::string hel
                        std::function<std::vector<std::string>&(ScreenSettings&)> field);
 OptionSpec switch_option(std::string name, std::string help, std::function<bool&(ScreenSettings&)> field);
 
+// A whole number as an option's value: digits only (no sign), within 64 bits; else UsageError.
+unsigned long long parse_whole(const std::string& option, const std::string& text);
+
 // "a,b,,c" → {a, b, c}
 std::vector<std::string> split_list(const std::string& text);
 
