@@ -17,6 +17,8 @@ inline const std::string coord_wrong_hemisphere = "coord_wrong_hemisphere";  // 
 inline const std::string coord_possibly_swapped = "coord_possibly_swapped";  // reported, never corrected
 inline const std::string coord_sign_unclear = "coord_sign_unclear";  // "(0.2)", "0.2-": a sign where no reader agrees on it
 inline const std::string coord_zero_zero = "coord_zero_zero";        // longitude and latitude both exactly 0: a placeholder
+// a vector file's longitude/latitude attributes and its point geometry disagree: which is right is unknown
+inline const std::string coord_geometry_differs = "coord_geometry_differs";
 // Read, but from an unusual form (the record is still used; the code says how it was read)
 inline const std::string coord_dms = "coord_dms";                      // degrees-minutes-seconds
 inline const std::string coord_hemisphere = "coord_hemisphere";        // hemisphere letters

@@ -72,7 +72,7 @@ void RangeCheck::prepare(RecordTable& t) {
                            alike->second + "', which looks like it; make the names match to check its records");
   }
   // each taxon's range read once, its records measured, the range freed: one range per thread in memory
-  std::vector<std::size_t> skipped(with_range.size(), 0);
+  std::vector<std::size_t> skipped(with_range.size(), 0), invalid(with_range.size(), 0);
   std::vector<std::exception_ptr> errors(with_range.size());
 #pragma omp parallel
   {
@@ -83,7 +83,7 @@ void RangeCheck::prepare(RecordTable& t) {
       try {
         if (!mine) mine = std::make_unique<RangeLayer>(source_of(settings_));  // GDAL handles are per thread
         const auto range = mine->load(taxa[with_range[k]]);
-        skipped[k] = range->skipped;
+        skipped[k] = range->skipped, invalid[k] = range->invalid;
         if (range->vertices() == 0) continue;  // only features without polygons: no range
         for (std::size_t i : records_of[with_range[k]]) {
           has_range_[i] = 1;
@@ -97,20 +97,26 @@ void RangeCheck::prepare(RecordTable& t) {
       }
     }
   }
-  std::vector<std::string> named;  // taxa with features that hold no polygon, in the points' order
-  std::size_t features = 0;
-  for (std::size_t k = 0; k < with_range.size(); ++k) {
+  for (std::size_t k = 0; k < with_range.size(); ++k)
     if (errors[k]) std::rethrow_exception(errors[k]);  // the first taxon's, whatever the threads
-    if (skipped[k]) named.push_back("'" + taxa[with_range[k]] + "'"), features += skipped[k];
-  }
-  if (!named.empty()) {  // one warning, however many taxa
+  // one warning per kind, however many taxa: the count, and the first taxa in the points' order
+  auto warn = [&](const std::vector<std::size_t>& count, const std::string& what, const std::string& then) {
     std::string list;
-    for (std::size_t k = 0; k < named.size() && k < 5; ++k) list += (k ? ", " : "") + named[k];
-    if (named.size() > 5) list += " and " + std::to_string(named.size() - 5) + " more";
-    t.warnings.push_back("--ranges " + settings_.path + ": " + std::to_string(features) + " feature(s) of " +
-                         std::to_string(named.size()) + " taxa hold no polygon (a point, a line or no geometry) and are "
-                         "not used (" + list + "); a taxon with no polygon left has no range (no_range)");
-  }
+    std::size_t features = 0, named = 0;
+    for (std::size_t k = 0; k < with_range.size(); ++k) {
+      if (!count[k]) continue;
+      features += count[k];
+      if (named++ < 5) list += (list.empty() ? "'" : ", '") + taxa[with_range[k]] + "'";
+    }
+    if (named > 5) list += " and " + std::to_string(named - 5) + " more";
+    if (features)
+      t.warnings.push_back("--ranges " + settings_.path + ": " + std::to_string(features) + " feature(s) of " +
+                           std::to_string(named) + " taxa " + what + " (" + list + ")" + then);
+  };
+  warn(skipped, "hold no polygon (a point, a line or no geometry) and are not used",
+       "; a taxon with no polygon left has no range (no_range)");
+  warn(invalid, "are not valid polygons (a ring crosses itself or another, as GEOS finds)",
+       ": distances near their edges may be wrong; repair the file, e.g. ogr2ogr -makevalid fixed.gpkg " + settings_.path);
 }
 
 Finding RangeCheck::judge(std::size_t i) const {

@@ -100,6 +100,15 @@ RangeLayer::RangeLayer(const RangeSource& source) : source_(source) {
   const OGRSpatialReference* srs = layer_->GetSpatialRef();
   const std::string crs = crs_text(srs);
   if (crs.empty()) {
+    OGREnvelope extent;
+    if (layer_->GetExtent(&extent, TRUE) == OGRERR_NONE &&
+        (std::fabs(extent.MinX) > 180 || std::fabs(extent.MaxX) > 180 || std::fabs(extent.MinY) > 90 || std::fabs(extent.MaxY) > 90))
+      throw InputError(source.path,
+                       "has no CRS (a Shapefile without its .prj?) and coordinates up to " +
+                           std::to_string(static_cast<long long>(std::max({std::fabs(extent.MinX), std::fabs(extent.MaxX),
+                                                                           std::fabs(extent.MinY), std::fabs(extent.MaxY)}))) +
+                           ", which cannot be degrees of longitude and latitude",
+                       "give the file its CRS, e.g. ogr2ogr -a_srs EPSG:32633 ranges.gpkg " + source.path + ", or restore its .prj");
     notes_.push_back("--ranges " + source.path + ": the layer has no CRS, so its coordinates are read as WGS 84 "
                      "longitude/latitude");
   } else if (!is_wgs84_lon_lat(crs)) {
@@ -152,6 +161,7 @@ std::unique_ptr<TaxonRange> RangeLayer::load(const std::string& taxon) {
       continue;
     }
     for (auto& p : parts) {
+      if (!p->IsValid()) ++range->invalid;  // in its own CRS, as drawn
       if (to_wgs84_) {
         if (segment_ > 0) p->segmentize(segment_);
         if (p->transform(to_wgs84_.get()) != OGRERR_NONE)

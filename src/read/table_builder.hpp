@@ -50,7 +50,10 @@ class TableBuilder {
   // Records whose coordinates are out of range for degrees but look like metres.
   std::size_t metre_like() const { return metre_like_; }
 
+  // `problems`: codes found before (a vector reader's coord_geometry_differs); a code among them
+  // that prevents scoring also keeps the record's location unused.
   void add(std::vector<std::string>& fields, std::size_t line, std::vector<std::string> problems) {
+    const bool withheld = std::any_of(problems.begin(), problems.end(), [](const std::string& c) { return reason::prevents_scoring(c); });
     Occurrence r;
     r.line = line;
     if (fields.size() != t_.columns.size()) {
@@ -71,7 +74,7 @@ class TableBuilder {
             problems.push_back(*code);
       if (lon.problem.empty() && lat.problem.empty() && lon.value == 0 && lat.value == 0) {
         problems.push_back(reason::coord_zero_zero);  // what broken exports write for "no coordinates"
-      } else if (lon.problem.empty() && lat.problem.empty()) {
+      } else if (lon.problem.empty() && lat.problem.empty() && !withheld) {
         r.longitude = lon.value;
         r.latitude = lat.value;
       } else if (lat.problem == reason::coord_out_of_range && lon.problem.empty() && std::fabs(lon.value) <= 90) {

@@ -42,6 +42,7 @@ class TaxonRange {
   // Its rings in longitude/latitude, for drawing (outer rings and holes alike).
   const std::vector<std::vector<LonLat>>& rings() const { return rings_; }
   std::size_t skipped = 0;  // its features without a polygon (a point, a line, no geometry)
+  std::size_t invalid = 0;  // its polygons that are not valid (self-intersecting rings; GEOS IsValid): used, and warned of
 
  private:
   friend class RangeLayer;
