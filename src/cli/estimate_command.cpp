@@ -3,6 +3,8 @@
 // will need. The same estimate a screen prints with --timings (settings/memory_estimate.hpp).
 #include <iostream>
 
+#include <omp.h>
+
 #include "commands.hpp"
 #include "envsift/errors.hpp"
 #include "envsift/run_summary.hpp"
@@ -16,7 +18,8 @@ namespace envsift::cli {
 int estimate_command(int argc, char** argv) {
   std::string records_text, taxa_text = "0", memory_limit_text = std::to_string(SamplingSettings{}.memory_limit_mb);
   std::vector<std::string> layers;
-  bool discs = false, no_landscape = false;
+  bool discs = false, no_landscape = false, report = false, gis = false;
+  std::string threads_text = std::to_string(omp_get_num_procs());
   po::options_description d(
       "Print the peak memory (MB, on stdout) that 'envsift screen' needs for RECORDS records on these layers:\n"
       "the estimate a screen prints with --timings, meant as an upper bound. A screen with --shard I/N reads\n"
@@ -30,6 +33,9 @@ int estimate_command(int argc, char** argv) {
     ("discs", po::bool_switch(&discs), "the records have uncertainty discs (a coordinateUncertaintyInMeters column)")
     ("no-landscape", po::bool_switch(&no_landscape), "the screen does not run the landscape test")
     ("memory-limit", po::value(&memory_limit_text)->value_name("MB"), "the screen's --memory-limit")
+    ("threads", po::value(&threads_text)->value_name("N"), "the screen's --threads (default: this machine's cores)")
+    ("report", po::bool_switch(&report), "the screen writes an HTML report (--report)")
+    ("gis", po::bool_switch(&gis), "the screen writes a GeoPackage or GeoJSON (--gis)")
     ("help,h", "show this help");
   po::variables_map vm;
   if (!parse(argc, argv, "estimate", "--records N --layers FILE... [options]", d, vm, nullptr, &d)) return 0;
@@ -50,6 +56,10 @@ int estimate_command(int argc, char** argv) {
     shape.raster_bytes += static_cast<std::size_t>(l.width) * static_cast<std::size_t>(l.height) * (l.float_cells ? 4 : 8);
   }
   shape.discs = discs;
+  shape.threads = parse_whole("threads", threads_text);
+  if (shape.threads == 0 || shape.threads > kMaxThreads)
+    throw UsageError("--threads must be between 1 and " + std::to_string(kMaxThreads) + ", not " + threads_text);
+  shape.report = report, shape.gis = gis;
   shape.landscape_cells = no_landscape ? 0 : TestSettings{}.landscape_cells;
   SamplingSettings sampling;
   sampling.memory_limit_mb = memory_limit;

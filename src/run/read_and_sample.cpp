@@ -4,6 +4,8 @@
 #include "envsift/settings/memory_estimate.hpp"
 #include "envsift/run_summary.hpp"
 #include <algorithm>
+
+#include <omp.h>
 #include "envsift/run/run.hpp"
 #include "envsift/sample/sample_records.hpp"
 #include "envsift/stable_hash.hpp"
@@ -42,6 +44,8 @@ RecordTable read_and_sample(const ScreenSettings& s, const ActiveTests* tests) {
     for (const auto& l : t.layers)  // blocks are kept as floats where a float holds the cells (block_cache.hpp)
       if (l.derived_from.empty() && !t.layers_are_columns)
         shape.raster_bytes += static_cast<std::size_t>(l.width) * static_cast<std::size_t>(l.height) * (l.float_cells ? 4 : 8);
+    shape.threads = static_cast<std::size_t>(omp_get_max_threads());
+    shape.report = !s.outputs.report.empty(), shape.gis = !s.outputs.gis.empty();
     if (tests && t.stack && std::any_of(tests->detectors.begin(), tests->detectors.end(), [](const auto& d) { return d->uses_landscape(); }))
       shape.landscape_cells = s.tests.landscape_cells;
     const MemoryEstimate e = estimate_memory(shape, s.sampling);

@@ -21,17 +21,26 @@ constexpr std::size_t kPlanPerRecord = 40;
 constexpr std::size_t kBase = std::size_t(100) << 20;  // GDAL, PROJ, the program (measured at ~90 MB)
 // A verdict serialised (score, flags, codes, each test's numbers; reasons of flagged records).
 constexpr std::size_t kVerdictBytes = 120;
+// Per thread: its stack, its malloc arena's slack, and its own GDAL handle on every layer.
+// Measured (scripts/bench workload, 1 M records, 19 layers): 8 threads peaked 105 MB above 2.
+constexpr std::size_t kPerThread = std::size_t(8) << 20, kPerThreadLayer = std::size_t(512) << 10;
+// The outputs that hold more than a row at a time, measured on the same workload: the report
+// (pictures of the taxa it draws, the top suspects) +44 MB, the GeoPackage (SQLite's page cache) +11 MB.
+constexpr std::size_t kReport = std::size_t(64) << 20, kGis = std::size_t(24) << 20;
 
 std::size_t mb(std::size_t bytes) { return (bytes + (1u << 19)) >> 20; }
 
 }  // namespace
 
-std::size_t MemoryEstimate::peak() const { return base + per_record + values + std::max(sampling, budgets); }
+std::size_t MemoryEstimate::peak() const {
+  return base + per_record + values + threads + outputs + std::max(sampling, budgets);
+}
 
 std::string MemoryEstimate::words() const {
   return "about " + with_thousands(mb(peak())) + " MB at its peak (records " + with_thousands(mb(per_record)) +
          ", values " + with_thousands(mb(values)) + ", the larger of sampling " + with_thousands(mb(sampling)) +
-         " and cache, landscapes and verdicts " + with_thousands(mb(budgets)) + ", program " + with_thousands(mb(base)) + ")";
+         " and cache, landscapes and verdicts " + with_thousands(mb(budgets)) + ", threads " + with_thousands(mb(threads)) +
+         (outputs ? ", outputs " + with_thousands(mb(outputs)) : std::string()) + ", program " + with_thousands(mb(base)) + ")";
 }
 
 MemoryEstimate estimate_memory(const RunShape& run, const SamplingSettings& s) {
@@ -49,6 +58,8 @@ MemoryEstimate estimate_memory(const RunShape& run, const SamplingSettings& s) {
                   (discs ? 3 * layers * sizeof(double) : 0));
   e.sampling = n * (kSamplingPerRecord + layers) + std::min(n, plan.chunk_records) * kPlanPerRecord + cache;
   e.budgets = cache + landscapes + std::min(plan.verdict_bytes, n * kVerdictBytes);
+  e.threads = std::max<std::size_t>(1, run.threads) * (kPerThread + layers * kPerThreadLayer);
+  e.outputs = (run.report ? kReport : 0) + (run.gis ? kGis : 0);
   return e;
 }
 
