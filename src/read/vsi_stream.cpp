@@ -9,26 +9,12 @@
 
 #include "envsift/errors.hpp"
 #include "envsift/read/point_reader.hpp"
+#include "vsi_file.hpp"
 
 namespace envsift::detail {
 namespace {
 
 const std::string kCopyAgain = "copy or download it again";
-
-class VsiFile {
- public:
-  explicit VsiFile(const std::string& path) : f_(VSIFOpenL(path.c_str(), "rb")) {}
-  ~VsiFile() {
-    if (f_) VSIFCloseL(f_);
-  }
-  VsiFile(const VsiFile&) = delete;
-  VsiFile& operator=(const VsiFile&) = delete;
-  bool ok() const { return f_ != nullptr; }
-  std::size_t read(void* into, std::size_t n) { return VSIFReadL(into, 1, n, f_); }
-
- private:
-  VSILFILE* f_;
-};
 
 // A plain file, standard input, or a zip member checked against its directory entry.
 class FileBytes : public ByteSource {

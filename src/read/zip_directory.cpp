@@ -2,9 +2,8 @@
 
 #include <algorithm>
 
-#include <cpl_vsi.h>
-
 #include "envsift/errors.hpp"
+#include "vsi_file.hpp"
 
 namespace envsift::detail {
 namespace {
@@ -15,28 +14,6 @@ std::uint64_t little_endian(const std::string& b, std::size_t at, int bytes) {
   return v;
 }
 
-class File {
- public:
-  explicit File(const std::string& path) : f_(VSIFOpenL(path.c_str(), "rb")) {}
-  ~File() {
-    if (f_) VSIFCloseL(f_);
-  }
-  bool ok() const { return f_ != nullptr; }
-  std::uint64_t size() {
-    VSIFSeekL(f_, 0, SEEK_END);
-    return VSIFTellL(f_);
-  }
-  std::string read(std::uint64_t at, std::uint64_t n) {
-    std::string out(static_cast<std::size_t>(n), '\0');
-    if (VSIFSeekL(f_, at, SEEK_SET) != 0) return "";
-    out.resize(VSIFReadL(out.data(), 1, out.size(), f_));
-    return out;
-  }
-
- private:
-  VSILFILE* f_;
-};
-
 constexpr std::uint32_t kEndOfDirectory = 0x06054b50, kZip64Locator = 0x07064b50, kZip64End = 0x06064b50,
                         kDirectoryEntry = 0x02014b50;
 
@@ -44,12 +21,12 @@ constexpr std::uint32_t kEndOfDirectory = 0x06054b50, kZip64Locator = 0x07064b50
 
 std::vector<ZipEntry> read_zip_directory(const std::string& path) {
   const std::string todo = "the zip archive is damaged or cut short; check it with unzip -t and copy or download it again";
-  File f(path);
+  VsiFile f(path);
   if (!f.ok()) throw InputError(path, "cannot open the zip archive", "check the path and its read permission");
   const std::uint64_t size = f.size();
   // the end-of-directory record: 22 bytes, after which only a comment of up to 65,535 bytes
   const std::uint64_t tail_start = size > 65557 ? size - 65557 : 0;
-  const std::string tail = f.read(tail_start, size - tail_start);
+  const std::string tail = f.read_at(tail_start, size - tail_start);
   std::size_t eocd = std::string::npos;
   for (std::size_t k = tail.size() >= 22 ? tail.size() - 22 + 1 : 0; k-- > 0;)
     if (little_endian(tail, k, 4) == kEndOfDirectory) {
@@ -60,12 +37,12 @@ std::vector<ZipEntry> read_zip_directory(const std::string& path) {
   std::uint64_t entries = little_endian(tail, eocd + 10, 2), dir_size = little_endian(tail, eocd + 12, 4),
                 dir_offset = little_endian(tail, eocd + 16, 4);
   if (eocd >= 20 && little_endian(tail, eocd - 20, 4) == kZip64Locator) {
-    const std::string z = f.read(little_endian(tail, eocd - 20 + 8, 8), 56);
+    const std::string z = f.read_at(little_endian(tail, eocd - 20 + 8, 8), 56);
     if (z.size() < 56 || little_endian(z, 0, 4) != kZip64End) throw InputError(path, "has a damaged Zip64 directory", todo);
     entries = little_endian(z, 32, 8), dir_size = little_endian(z, 40, 8), dir_offset = little_endian(z, 48, 8);
   }
   if (dir_offset + dir_size > size) throw InputError(path, "its zip central directory lies beyond the file's end", todo);
-  const std::string dir = f.read(dir_offset, dir_size);
+  const std::string dir = f.read_at(dir_offset, dir_size);
   std::vector<ZipEntry> out;
   std::size_t at = 0;
   for (std::uint64_t e = 0; e < entries; ++e) {
