@@ -3,12 +3,14 @@
 // python3): every dash (general category Pd) and every character whose name holds MINUS. The
 // accounting-style "(0.2)" and the trailing "0.2-" are conventions of spreadsheets and
 // accounting printouts (common practice), which readers disagree on; envsift refuses them.
+// Windows-1252 against Python's cp1252 codec.
 #include <gtest/gtest.h>
 
 #include <cmath>
 
 #include "../support.hpp"
 #include "envsift/read/coordinates.hpp"
+#include "envsift/read/text_encoding.hpp"
 #include "envsift/reason_codes.hpp"
 
 namespace envsift {
@@ -77,6 +79,40 @@ TEST(CoordinateSigns, SignsReadersDisagreeOnAreRefused) {
   EXPECT_NEAR(parse_coordinate("12d 30m 15s", Axis::latitude).value, 12 + 30 / 60.0 + 15 / 3600.0, 1e-12);
   EXPECT_NEAR(parse_coordinate("12\u00B030\u2019 15\u201D W", Axis::longitude).value, -(12 + 30 / 60.0 + 15 / 3600.0), 1e-12);
   EXPECT_NEAR(parse_coordinate("-12:30:15", Axis::longitude).value, -(12 + 30 / 60.0 + 15 / 3600.0), 1e-12);
+}
+
+// A file written by a Windows program in "Latin-1" is Windows-1252: its en dash is the byte 0x96.
+// Reference: Python's cp1252 codec (Debian's python3) for every byte 0x80-0xFF; the five bytes it
+// leaves undefined keep their Latin-1 code points (WHATWG Encoding Standard, windows-1252 index).
+TEST(CoordinateSigns, AWindowsFilesEnDashIsAMinus) {
+  const auto r = run("python3 -c 'import sys\n"
+                     "for b in range(0x80, 0x100):\n"
+                     "  try: c = bytes([b]).decode(\"cp1252\")\n"
+                     "  except UnicodeDecodeError: c = chr(b)\n"
+                     "  print(b, c.encode().hex())'");
+  ASSERT_EQ(r.exit_code, 0) << r.output;
+  std::istringstream lines(r.output);
+  std::size_t checked = 0;
+  for (int byte; lines >> byte;) {
+    std::string hex, expected;
+    lines >> hex;
+    for (std::size_t i = 0; i + 1 < hex.size(); i += 2) expected += static_cast<char>(std::stoi(hex.substr(i, 2), nullptr, 16));
+    bool changed = false;
+    EXPECT_EQ(to_utf8(std::string(1, static_cast<char>(byte)), changed), expected) << "byte " << byte;
+    EXPECT_TRUE(changed);
+    ++checked;
+  }
+  EXPECT_EQ(checked, 128u);
+  const auto dir = temp_dir("cp1252-minus");
+  write_file(dir + "/p.csv", "occurrenceID,scientificName,decimalLongitude,decimalLatitude\n"
+                             "D,Orophila nivicola,\x96" "0.2,0.5\nE,Orophila nivicola,-0.2,0.5\n");
+  const auto s = run(envsift_binary() + " sample -q" + demo_layers() + " --points " + dir + "/p.csv --out " + dir + "/o.csv");
+  ASSERT_EQ(s.exit_code, 0) << s.output;
+  const Table t = read_csv(dir + "/o.csv");
+  const auto rows = by_id(t);
+  EXPECT_EQ(rows.at("D")[t.column("decimalLongitude")], "\u20130.2");  // written back as UTF-8
+  EXPECT_EQ(rows.at("D")[t.column("status")], "latin1_converted;coord_unicode_minus");
+  EXPECT_EQ(rows.at("D")[t.column("dem")], rows.at("E")[t.column("dem")]);
 }
 
 // 0/0 is what broken exports write for "no coordinates" (common practice: data portals flag it);
