@@ -88,6 +88,9 @@ class GzipBytes : public ByteSource {
         throw InputError(name_, "the gzip data are damaged (" + why + ")", "check it with gzip -t, then " + kCopyAgain);
       } else if (r == Z_MEM_ERROR) {
         throw std::bad_alloc();
+      } else if (r != Z_OK && !(r == Z_BUF_ERROR && z_.avail_in == 0)) {  // no progress possible: never spin
+        throw InputError(name_, "the gzip data cannot be decoded (zlib error " + std::to_string(r) + ")",
+                         "check it with gzip -t, then " + kCopyAgain);
       }
     }
     return wanted - z_.avail_out;
