@@ -13,8 +13,8 @@ Layers (each on its own grid, to exercise per-layer handling):
 Temperature falls 6.5 deg C per km of elevation (ICAO Standard Atmosphere lapse rate); rainfall
 rises on the windward (west) slope and drops in the lee.
 
-Taxa: Orophila nivicola (montane), Campestra humilis (moist lowland), Errantia vulgaris (generalist),
-Petricola rara (a handful of records: too few to judge). Planted errors are listed in
+Taxa: Oxmontia nivicola (montane), Cumbrexa humilis (moist lowland), Evrandia vulgaris (generalist),
+Pexaltra rara (a handful of records: too few to judge). Planted errors are listed in
 demo-points/truth.csv. Their published ranges (demo-points/ranges.geojson, for --ranges) are drawn
 as an atlas would: the 0.1-degree grid cells where each taxon is expected, merged into polygons.
 Deterministic: same script, same bytes.
@@ -155,11 +155,11 @@ def make_points():
     os.makedirs(POINTS, exist_ok=True)
     rng = np.random.RandomState(20261201)
     taxa = [
-        ("Orophila nivicola", 320, lambda lo, la: math.exp(-((elevation(lo, la) - 1900) / 280) ** 2)),
-        ("Campestra humilis", 260,
+        ("Oxmontia nivicola", 320, lambda lo, la: math.exp(-((elevation(lo, la) - 1900) / 280) ** 2)),
+        ("Cumbrexa humilis", 260,
          lambda lo, la: math.exp(-((elevation(lo, la) - 180) / 120) ** 2 - ((rainfall(lo, la) - 1000) / 200) ** 2)),
-        ("Errantia vulgaris", 300, None),  # found at every elevation: see draw_across_elevations
-        ("Petricola rara", 5, lambda lo, la: math.exp(-((elevation(lo, la) - 1500) / 200) ** 2)),
+        ("Evrandia vulgaris", 300, None),  # found at every elevation: see draw_across_elevations
+        ("Pexaltra rara", 5, lambda lo, la: math.exp(-((elevation(lo, la) - 1500) / 200) ** 2)),
     ]
     rows = []
     for taxon, count, suit in taxa:
@@ -177,8 +177,8 @@ def make_points():
                       "note": note, "environmental_outlier": detectable, "row": index})
         r["decimalLongitude"], r["decimalLatitude"] = lon, lat
 
-    montane = [i for i, r in enumerate(rows) if r["scientificName"] == "Orophila nivicola"]
-    lowland = [i for i, r in enumerate(rows) if r["scientificName"] == "Campestra humilis"]
+    montane = [i for i, r in enumerate(rows) if r["scientificName"] == "Oxmontia nivicola"]
+    lowland = [i for i, r in enumerate(rows) if r["scientificName"] == "Cumbrexa humilis"]
     # On the ridge with lat clearly different from lon, so that a swap lands in the lowland.
     ridge = [i for i in montane if abs(rows[i]["decimalLatitude"] - rows[i]["decimalLongitude"]) > 0.25
              and 0.4 < rows[i]["decimalLongitude"] < 0.6 and elevation(rows[i]["decimalLongitude"],
@@ -196,14 +196,14 @@ def make_points():
 
     # Records that cannot be sampled, kept to show their reason codes.
     problems = [
-        ("coord_missing", "", "0.1", "longitude left empty"),
-        ("coord_not_numeric", "east of the lake", "-0.1", "longitude written as words"),
-        ("coord_out_of_range", "0.3", "95.2", "latitude beyond 90"),
+        ("position_empty", "", "0.1", "longitude left empty"),
+        ("position_not_number", "east of the lake", "-0.1", "longitude written as words"),
+        ("position_off_globe", "0.3", "95.2", "latitude beyond 90"),
         ("outside_layer", "5.5", "0.2", "point off the island's rasters"),
         ("nodata", str(LAKE[0]), str(LAKE[1]), "point in the lake"),
     ]
     for kind, lon, lat, note in problems:
-        rows.append({"scientificName": "Errantia vulgaris", "decimalLongitude": lon, "decimalLatitude": lat})
+        rows.append({"scientificName": "Evrandia vulgaris", "decimalLongitude": lon, "decimalLatitude": lat})
         truth.append({"kind": kind, "original_lon": lon, "original_lat": lat, "note": note,
                       "environmental_outlier": "no", "row": len(rows) - 1})
 
@@ -242,10 +242,10 @@ def make_ranges():
     """Atlas-style ranges: 0.1-degree cells over the island, kept where the taxon is expected
     (judged at the cell's centre, as an atlas compiler would), merged into (multi)polygons."""
     expected = [
-        ("Campestra humilis", lambda z, r: z < 450 and 650 < r < 1350),
-        ("Errantia vulgaris", lambda z, r: True),
-        ("Orophila nivicola", lambda z, r: z > 1300),  # the ridge and the massif: two parts
-        ("Petricola rara", lambda z, r: 1150 < z < 1850),
+        ("Cumbrexa humilis", lambda z, r: z < 450 and 650 < r < 1350),
+        ("Evrandia vulgaris", lambda z, r: True),
+        ("Oxmontia nivicola", lambda z, r: z > 1300),  # the ridge and the massif: two parts
+        ("Pexaltra rara", lambda z, r: 1150 < z < 1850),
     ]
     os.makedirs(POINTS, exist_ok=True)
     path = os.path.join(POINTS, "ranges.geojson")

@@ -9,21 +9,21 @@ namespace envsift::reason {
 
 inline const std::string ok = "ok";
 // Reading
-inline const std::string coord_missing = "coord_missing";            // longitude or latitude empty
-inline const std::string coord_not_numeric = "coord_not_numeric";    // text that is not a number
-inline const std::string coord_not_finite = "coord_not_finite";      // NaN, inf, or overflows a double
-inline const std::string coord_out_of_range = "coord_out_of_range";  // |lat| > 90 or |lon| > 180
-inline const std::string coord_wrong_hemisphere = "coord_wrong_hemisphere";  // N/S on a longitude, or a sign and a letter
-inline const std::string coord_possibly_swapped = "coord_possibly_swapped";  // reported, never corrected
-inline const std::string coord_sign_unclear = "coord_sign_unclear";  // "(0.2)", "0.2-": a sign where no reader agrees on it
-inline const std::string coord_zero_zero = "coord_zero_zero";        // longitude and latitude both exactly 0: a placeholder
+inline const std::string position_empty = "position_empty";            // longitude or latitude empty
+inline const std::string position_not_number = "position_not_number";    // text that is not a number
+inline const std::string position_not_finite = "position_not_finite";      // NaN, inf, or overflows a double
+inline const std::string position_off_globe = "position_off_globe";  // |lat| > 90 or |lon| > 180
+inline const std::string position_hemisphere_conflict = "position_hemisphere_conflict";  // N/S on a longitude, or a sign and a letter
+inline const std::string position_maybe_swapped = "position_maybe_swapped";  // reported, never corrected
+inline const std::string position_sign_unclear = "position_sign_unclear";  // "(0.2)", "0.2-": a sign where no reader agrees on it
+inline const std::string position_zero_zero = "position_zero_zero";        // longitude and latitude both exactly 0: a placeholder
 // a vector file's longitude/latitude attributes and its point geometry disagree: which is right is unknown
-inline const std::string coord_geometry_differs = "coord_geometry_differs";
+inline const std::string position_geometry_disagrees = "position_geometry_disagrees";
 // Read, but from an unusual form (the record is still used; the code says how it was read)
-inline const std::string coord_dms = "coord_dms";                      // degrees-minutes-seconds
-inline const std::string coord_hemisphere = "coord_hemisphere";        // hemisphere letters
-inline const std::string coord_decimal_comma = "coord_decimal_comma";  // "12,5"
-inline const std::string coord_unicode_minus = "coord_unicode_minus";  // "−12.5", "–12.5": a minus sign or dash read as minus
+inline const std::string read_dms = "read_dms";                      // degrees-minutes-seconds
+inline const std::string read_hemisphere_letter = "read_hemisphere_letter";        // hemisphere letters
+inline const std::string read_decimal_comma = "read_decimal_comma";  // "12,5"
+inline const std::string read_dash_as_minus = "read_dash_as_minus";  // "−12.5", "–12.5": a minus sign or dash read as minus
 inline const std::string latin1_converted = "latin1_converted";        // bytes not UTF-8, read as Latin-1
 inline const std::string duplicate_id = "duplicate_id";                // another record has the same ID
 inline const std::string ragged_row = "ragged_row";                  // field count differs from header
@@ -55,7 +55,7 @@ inline const std::string reviewed_error = "reviewed_error";
 inline std::string on_layer(const std::string& code, const std::string& layer) { return code + ":" + layer; }
 
 // Whether a code says why a record could not be scored, rather than how it was read or a note
-// beside its score (coord_decimal_comma, duplicate_id, ragged_row, uncertainty_capped, ...).
+// beside its score (read_decimal_comma, duplicate_id, ragged_row, uncertainty_capped, ...).
 bool prevents_scoring(const std::string& code);
 // The reason an unscored record was not scored: its first code that prevents scoring, else no_values.
 std::string why_not_scored(const std::vector<std::string>& codes);

@@ -11,7 +11,7 @@ int sample_command(int argc, char** argv) {
   po::options_description d(
       "Sample every raster layer at every record's coordinates. Output: every input record once, in input\n"
       "order, with its original columns, one column per layer and a `status` column (`ok` or reason codes\n"
-      "such as outside_layer:NAME, nodata:NAME, coord_missing).\n\nOptions",
+      "such as outside_layer:NAME, nodata:NAME, position_empty).\n\nOptions",
       100, 50);
   add_declared(d, options, {"points", "layers", "out"});
   add_run_switches(d);

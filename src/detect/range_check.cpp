@@ -141,7 +141,7 @@ TestEntry range_check_entry() {
                                   [](ScreenSettings& s) -> std::string& { return s.ranges.taxon_field; }));
   e.options.push_back(text_option("range-filter", "SQL",
                                   "use only the range features this OGR SQL WHERE clause selects, e.g. "
-                                  "\"seasonal IN (1, 2)\" for resident and breeding parts",
+                                  "\"season = 'resident'\" (a field of your layer) for the parts where the taxon lives all year",
                                   [](ScreenSettings& s) -> std::string& { return s.ranges.filter; }));
   e.options.push_back(real_option("range-tolerance", "KM",
                                   "flag only records more than KM kilometres outside their taxon's range, beyond their "

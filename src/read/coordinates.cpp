@@ -35,11 +35,11 @@ ParsedNumber parse_number(std::string_view text) {
   if (digits.front() == '+') digits.remove_prefix(1);  // from_chars rejects a leading '+'
   auto [end, ec] = std::from_chars(digits.data(), digits.data() + digits.size(), out.value);
   if (ec == std::errc::result_out_of_range) {
-    out.problem = reason::coord_not_finite;
+    out.problem = reason::position_not_finite;
   } else if (ec != std::errc() || end != digits.data() + digits.size()) {
-    out.problem = reason::coord_not_numeric;
+    out.problem = reason::position_not_number;
   } else if (!std::isfinite(out.value)) {
-    out.problem = reason::coord_not_finite;
+    out.problem = reason::position_not_finite;
   }
   return out;
 }
@@ -150,13 +150,13 @@ bool unclear_sign(const std::string& s) {
 ParsedNumber parse_coordinate(std::string_view text, Axis axis) {
   ParsedNumber out = parse_number(text);
   if (out.problem == "empty") {
-    out.problem = reason::coord_missing;
+    out.problem = reason::position_empty;
     return out;
   }
-  if (out.problem == reason::coord_not_numeric) {
+  if (out.problem == reason::position_not_number) {
     std::string s(trim(text));
     if (unclear_sign(s)) {
-      out.problem = reason::coord_sign_unclear;
+      out.problem = reason::position_sign_unclear;
       return out;
     }
     const bool unicode_minus = replace_minus_like(s);
@@ -169,31 +169,31 @@ ParsedNumber parse_coordinate(std::string_view text, Axis axis) {
       const ParsedNumber n = parse_number(dotted);
       read = n.problem.empty();
       value = n.value;
-      out.note = reason::coord_decimal_comma;
+      out.note = reason::read_decimal_comma;
     } else if (const ParsedNumber n = parse_number(s); n.problem.empty()) {
       read = true;
       value = n.value;
     } else if (parse_dms(s, value)) {
       read = true;
-      out.note = reason::coord_dms;
+      out.note = reason::read_dms;
     }
-    if (!read) return out;  // coord_not_numeric
-    if (unicode_minus) out.note = reason::coord_unicode_minus;  // the sign matters more than the form
+    if (!read) return out;  // position_not_number
+    if (unicode_minus) out.note = reason::read_dash_as_minus;  // the sign matters more than the form
     if (hemisphere) {
       const bool fits = axis == Axis::latitude ? (hemisphere == 'N' || hemisphere == 'S') : (hemisphere == 'E' || hemisphere == 'W');
       if (!fits || value < 0) {  // a letter for the other axis, or a sign and a letter at once
-        out.problem = reason::coord_wrong_hemisphere;
+        out.problem = reason::position_hemisphere_conflict;
         return out;
       }
       if (hemisphere == 'S' || hemisphere == 'W') value = -value;
-      if (out.note.empty()) out.note = reason::coord_hemisphere;
+      if (out.note.empty()) out.note = reason::read_hemisphere_letter;
     }
     out.value = value;
     out.problem.clear();
   }
   if (out.problem.empty()) {
     const double limit = axis == Axis::latitude ? 90.0 : 180.0;
-    if (std::fabs(out.value) > limit) out.problem = reason::coord_out_of_range;
+    if (std::fabs(out.value) > limit) out.problem = reason::position_off_globe;
   }
   return out;
 }

@@ -94,7 +94,7 @@ RangeLayer::RangeLayer(const RangeSource& source) : source_(source) {
     if (layer_->SetAttributeFilter(source.filter.c_str()) != OGRERR_NONE)
       throw InputError(source.path, "OGR rejects the filter '" + source.filter + "': " + CPLGetLastErrorMsg(),
                        "write --range-filter as an OGR SQL WHERE clause on the layer's fields (" +
-                           field_names(definition) + "), e.g. \"seasonal IN (1, 2)\"");
+                           field_names(definition) + "), e.g. \"season = 'resident'\"");
   }
   // CRS: reproject to WGS 84 longitude/latitude
   const OGRSpatialReference* srs = layer_->GetSpatialRef();

@@ -50,7 +50,7 @@ class TableBuilder {
   // Records whose coordinates are out of range for degrees but look like metres.
   std::size_t metre_like() const { return metre_like_; }
 
-  // `problems`: codes found before (a vector reader's coord_geometry_differs); a code among them
+  // `problems`: codes found before (a vector reader's position_geometry_disagrees); a code among them
   // that prevents scoring also keeps the record's location unused.
   void add(std::vector<std::string>& fields, std::size_t line, std::vector<std::string> problems) {
     const bool withheld = std::any_of(problems.begin(), problems.end(), [](const std::string& c) { return reason::prevents_scoring(c); });
@@ -65,7 +65,7 @@ class TableBuilder {
     } else if (ix_.longitude && ix_.latitude) {
       auto lon = parse_coordinate(fields[*ix_.longitude], Axis::longitude);
       auto lat = parse_coordinate(fields[*ix_.latitude], Axis::latitude);
-      if ((lon.problem == reason::coord_out_of_range || lat.problem == reason::coord_out_of_range) &&
+      if ((lon.problem == reason::position_off_globe || lat.problem == reason::position_off_globe) &&
           (std::fabs(lon.value) > 1000 || std::fabs(lat.value) > 1000))
         ++metre_like_;
       for (const auto* p : {&lon, &lat})
@@ -73,12 +73,12 @@ class TableBuilder {
           if (!code->empty() && std::find(problems.begin(), problems.end(), *code) == problems.end())
             problems.push_back(*code);
       if (lon.problem.empty() && lat.problem.empty() && lon.value == 0 && lat.value == 0) {
-        problems.push_back(reason::coord_zero_zero);  // what broken exports write for "no coordinates"
+        problems.push_back(reason::position_zero_zero);  // what broken exports write for "no coordinates"
       } else if (lon.problem.empty() && lat.problem.empty() && !withheld) {
         r.longitude = lon.value;
         r.latitude = lat.value;
-      } else if (lat.problem == reason::coord_out_of_range && lon.problem.empty() && std::fabs(lon.value) <= 90) {
-        problems.push_back(reason::coord_possibly_swapped);  // reported, never corrected
+      } else if (lat.problem == reason::position_off_globe && lon.problem.empty() && std::fabs(lon.value) <= 90) {
+        problems.push_back(reason::position_maybe_swapped);  // reported, never corrected
       }
     }
     if (ix_.id && !fields[*ix_.id].empty()) r.id_hash = id_hash(fields[*ix_.id]);
@@ -99,18 +99,18 @@ class TableBuilder {
     const ParsedNumber x = parse_number(x_text), y = parse_number(y_text);
     for (const auto* p : {&x, &y})
       if (!p->problem.empty()) {
-        const std::string code = p->problem == "empty" ? reason::coord_missing : p->problem;
+        const std::string code = p->problem == "empty" ? reason::position_empty : p->problem;
         if (std::find(problems.begin(), problems.end(), code) == problems.end()) problems.push_back(code);
       }
     if (!x.problem.empty() || !y.problem.empty()) return;
     if (x.value == 0 && y.value == 0) {  // the CRS's origin: a placeholder, as 0/0 in degrees
-      problems.push_back(reason::coord_zero_zero);
+      problems.push_back(reason::position_zero_zero);
       return;
     }
     double lon = x.value, lat = y.value;
     if (!to_wgs84_->Transform(1, &lon, &lat) || !std::isfinite(lon) || !std::isfinite(lat) || std::fabs(lat) > 90 ||
         std::fabs(lon) > 180) {
-      problems.push_back(reason::coord_out_of_range);  // outside the area the CRS can be transformed from
+      problems.push_back(reason::position_off_globe);  // outside the area the CRS can be transformed from
       return;
     }
     r.longitude = lon, r.latitude = lat;

@@ -54,7 +54,7 @@ PointTable read_vector(const std::string& path, const ReaderOptions& o) {
 
   // Longitude/latitude attributes are used when present (they are the original data), and checked
   // against the point geometry when there is one: a point moved in a GIS leaves its attributes
-  // stale, and which of the two is right cannot be known (coord_geometry_differs, not scored).
+  // stale, and which of the two is right cannot be known (position_geometry_disagrees, not scored).
   // Without the attributes the geometry supplies them, reprojected to WGS 84 lon/lat, in two
   // appended columns.
   const bool has_attributes = find_column(table.columns, o.columns.longitude) &&
@@ -91,7 +91,7 @@ PointTable read_vector(const std::string& path, const ReaderOptions& o) {
       fields.resize(table.columns.size());
       if (located) fields[*ix.longitude] = shortest(x), fields[*ix.latitude] = shortest(y);
     } else if (located && (disagree(fields[*ix.longitude], x, Axis::longitude) || disagree(fields[*ix.latitude], y, Axis::latitude))) {
-      problems.push_back(reason::coord_geometry_differs);
+      problems.push_back(reason::position_geometry_disagrees);
       if (!differing++)
         first_difference = "feature " + std::to_string(feature_number + 1) + ": attributes " + fields[*ix.longitude] + ", " +
                            fields[*ix.latitude] + "; geometry " + shortest(x) + ", " + shortest(y);
@@ -102,7 +102,7 @@ PointTable read_vector(const std::string& path, const ReaderOptions& o) {
     table.warnings.push_back(path + ": " + std::to_string(differing) + " record(s) have " + o.columns.longitude + "/" +
                              o.columns.latitude + " attributes that disagree with their point geometry (first: " +
                              first_difference + "); envsift cannot know which is right, so they are not scored "
-                             "(coord_geometry_differs): correct the attributes, or drop them to use the geometry");
+                             "(position_geometry_disagrees): correct the attributes, or drop them to use the geometry");
   return table;
 }
 

@@ -90,7 +90,7 @@ void BatchWriter::prepare(std::vector<PendingRecord>& batch, std::size_t start, 
       for (const auto& c : p.verdict.codes)
         if (std::find(p.codes.begin(), p.codes.end(), c) == p.codes.end()) p.codes.push_back(c);
       p.scored = judgement_->scores[i].has_value();
-      // a screen's status always says why (a note such as coord_decimal_comma never does)
+      // a screen's status always says why (a note such as read_decimal_comma never does)
       if (!p.scored && reason::why_not_scored(p.codes) == reason::no_values &&
           std::find(p.codes.begin(), p.codes.end(), reason::no_values) == p.codes.end())
         p.codes.push_back(reason::no_values);

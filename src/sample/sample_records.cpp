@@ -59,7 +59,7 @@ void mark_possible_swaps(RecordTable& t, RasterStack& stack, const std::vector<d
   const Samples swapped = stack.sample(swapped_lon, swapped_lat, Interpolation::nearest);
   for (std::size_t k = 0; k < lost.size(); ++k)
     if (swapped.values.row(static_cast<Eigen::Index>(k)).array().isFinite().any())
-      t.codes.add(lost[k], reason::coord_possibly_swapped);
+      t.codes.add(lost[k], reason::position_maybe_swapped);
 }
 
 }  // namespace

@@ -59,7 +59,7 @@ TEST(BadInput, RaggedRowsAreKeptAndMarked) {
   ASSERT_EQ(o.run.exit_code, 0) << o.run.output;
   ASSERT_EQ(o.table.rows.size(), 3u);
   EXPECT_EQ(status(o, 0), "ok");
-  EXPECT_EQ(status(o, 1), "ragged_row;coord_missing");
+  EXPECT_EQ(status(o, 1), "ragged_row;position_empty");
   EXPECT_EQ(status(o, 2), "ragged_row");
 }
 
@@ -116,7 +116,7 @@ TEST(BadInput, DuplicateIdsAreKeptAndReported) {
 TEST(BadInput, DecimalCommaIsReadAndNoted) {
   auto o = sample("comma", kHeader + "a,T,\"0,1\",\"0,1\"\nb,T,0.1,0.1\n");
   ASSERT_EQ(o.run.exit_code, 0);
-  EXPECT_EQ(status(o, 0), "coord_decimal_comma");
+  EXPECT_EQ(status(o, 0), "read_decimal_comma");
   EXPECT_EQ(o.table.rows[0][4], o.table.rows[1][4]);  // the same cell as 0.1, 0.1
 }
 
@@ -124,8 +124,8 @@ TEST(BadInput, DegreesMinutesSecondsAreReadAndNoted) {
   // 0°30'36" = 0.51°; 0°6'0" = 0.1°; the same cells as the decimal forms
   auto o = sample("dms", kHeader + "a,T,0°30'36\",0°6'0\"\nb,T,0.51,0.1\nc,T,0 30 36,0 6\n");
   ASSERT_EQ(o.run.exit_code, 0);
-  EXPECT_EQ(status(o, 0), "coord_dms");
-  EXPECT_EQ(status(o, 2), "coord_dms");
+  EXPECT_EQ(status(o, 0), "read_dms");
+  EXPECT_EQ(status(o, 2), "read_dms");
   EXPECT_EQ(o.table.rows[0][4], o.table.rows[1][4]);
   EXPECT_EQ(o.table.rows[2][4], o.table.rows[1][4]);
 }
@@ -133,30 +133,30 @@ TEST(BadInput, DegreesMinutesSecondsAreReadAndNoted) {
 TEST(BadInput, HemisphereLettersAreReadAndNoted) {
   auto o = sample("hemisphere", kHeader + "a,T,0.5W,0.2S\nb,T,-0.5,-0.2\nc,T,0.5N,0.2\nd,T,-0.5W,0.2\n");
   ASSERT_EQ(o.run.exit_code, 0);
-  EXPECT_EQ(status(o, 0), "coord_hemisphere");
+  EXPECT_EQ(status(o, 0), "read_hemisphere_letter");
   EXPECT_EQ(o.table.rows[0][4], o.table.rows[1][4]);
-  EXPECT_EQ(status(o, 2), "coord_wrong_hemisphere");  // N on a longitude
-  EXPECT_EQ(status(o, 3), "coord_wrong_hemisphere");  // a sign and a letter at once
+  EXPECT_EQ(status(o, 2), "position_hemisphere_conflict");  // N on a longitude
+  EXPECT_EQ(status(o, 3), "position_hemisphere_conflict");  // a sign and a letter at once
 }
 
 TEST(BadInput, NanInfAndOverflowAreNotFinite) {
   auto o = sample("finite", kHeader + "a,T,NaN,0.1\nb,T,0.1,inf\nc,T,1e999,0.1\n");
   ASSERT_EQ(o.run.exit_code, 0);
   ASSERT_EQ(o.table.rows.size(), 3u);
-  for (std::size_t i = 0; i < 3; ++i) EXPECT_EQ(status(o, i), "coord_not_finite") << i;
+  for (std::size_t i = 0; i < 3; ++i) EXPECT_EQ(status(o, i), "position_not_finite") << i;
 }
 
 TEST(BadInput, LatitudeOutOfRange) {
   auto o = sample("range", kHeader + "a,T,120.5,91\n");
   ASSERT_EQ(o.run.exit_code, 0);
-  EXPECT_EQ(status(o, 0), "coord_out_of_range");
+  EXPECT_EQ(status(o, 0), "position_off_globe");
 }
 
 TEST(BadInput, ProbableSwapIsReportedNotCorrected) {
   // (0.3, 95.2): an impossible latitude that is a fine longitude, and 0.3 a fine latitude.
   auto o = sample("swap", kHeader + "a,T,0.3,95.2\n");
   ASSERT_EQ(o.run.exit_code, 0);
-  EXPECT_EQ(status(o, 0), "coord_out_of_range;coord_possibly_swapped");
+  EXPECT_EQ(status(o, 0), "position_off_globe;position_maybe_swapped");
   EXPECT_EQ(o.table.rows[0][2], "0.3");  // the original coordinates are untouched
   // Off every layer, but on one with latitude and longitude swapped: a grid west of 0°, south of
   // the equator, and a record at (-0.5, -10) whose swap (-10, -0.5) falls on it.
@@ -168,7 +168,7 @@ TEST(BadInput, ProbableSwapIsReportedNotCorrected) {
                "/grid.asc --out " + dir + "/o.csv");
   ASSERT_EQ(r.exit_code, 0) << r.output;
   const Table t = read_csv(dir + "/o.csv");
-  EXPECT_EQ(t.rows[0][t.column("status")], "outside_layer:grid;coord_possibly_swapped");
+  EXPECT_EQ(t.rows[0][t.column("status")], "outside_layer:grid;position_maybe_swapped");
   EXPECT_EQ(t.rows[1][t.column("status")], "ok");
 }
 

@@ -32,7 +32,7 @@ TEST(CircularLayers, NorthFacingRecordsAreNotFlaggedAcrossZero) {
   for (int twice = 0; twice < 2; ++twice)
     for (int a = -10; a <= 10; ++a) aspects.push_back((a + 360) % 360);
   for (std::size_t k = 0; k < aspects.size(); ++k)
-    csv += "N" + std::to_string(k + 1) + ",Orophila nivicola," + std::to_string(aspects[k]) + "," + std::to_string(20 + k % 7) + "\n";
+    csv += "N" + std::to_string(k + 1) + ",Oxmontia nivicola," + std::to_string(aspects[k]) + "," + std::to_string(20 + k % 7) + "\n";
   write_file(dir + "/p.csv", csv);
   const std::string screen = envsift_binary() + " screen -q --single-taxon --points " + dir + "/p.csv --value-columns north,slope";
   // as a line, one population (the population split would rescue it by luck: two groups)
@@ -61,7 +61,7 @@ TEST(CircularLayers, NorthFacingRecordsAreNotFlaggedAcrossZero) {
     EXPECT_NEAR(std::stod(row[circular.column("north_cos")]), std::cos(radians), 1e-15);
   }
   // a record facing south is still found
-  write_file(dir + "/south.csv", csv + "S1,Orophila nivicola,180,22\n");
+  write_file(dir + "/south.csv", csv + "S1,Oxmontia nivicola,180,22\n");
   r = run(envsift_binary() + " screen -q --single-taxon --points " + dir + "/south.csv --value-columns north,slope --circular north --out " +
           dir + "/south-out.csv");
   ASSERT_EQ(r.exit_code, 0) << r.output;

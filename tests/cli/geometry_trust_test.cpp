@@ -42,14 +42,14 @@ TEST(GeometryTrust, AttributesThatDisagreeWithTheGeometryAreCodedNotUsed) {
   ASSERT_EQ(t.rows.size(), 915u);  // every record, once
   const auto rows = by_id(t);
   for (const char* id : {"QM-0001", "QM-0002"}) {
-    EXPECT_EQ(rows.at(id)[t.column("status")], "coord_geometry_differs") << id;
+    EXPECT_EQ(rows.at(id)[t.column("status")], "position_geometry_disagrees") << id;
     EXPECT_EQ(rows.at(id)[t.column("dem")], "") << id << " is not sampled at either place";
     EXPECT_EQ(rows.at(id)[t.column("decimalLongitude")], "0.9") << "the attribute is kept as written";
   }
   EXPECT_EQ(rows.at("QM-0005")[t.column("status")], "ok");                      // |0.48 - 0.48159| < 0.005
-  EXPECT_EQ(rows.at("QM-0004")[t.column("status")], "coord_geometry_differs");  // |0.4 - 0.5125| > 0.05
+  EXPECT_EQ(rows.at("QM-0004")[t.column("status")], "position_geometry_disagrees");  // |0.4 - 0.5125| > 0.05
   std::size_t coded = 0;
-  for (const auto& row : t.rows) coded += row[t.column("status")].find("coord_geometry_differs") != std::string::npos;
+  for (const auto& row : t.rows) coded += row[t.column("status")].find("position_geometry_disagrees") != std::string::npos;
   EXPECT_EQ(coded, 3u);
 }
 
@@ -72,14 +72,14 @@ TEST(GeometryTrust, ASelfIntersectingRangeIsUsedAndWarnedOf) {
   // a bow tie over the demo island: its ring crosses itself at (0.5, 0.5)
   write_file(dir + "/bowtie.geojson",
              "{\"type\":\"FeatureCollection\",\"features\":[{\"type\":\"Feature\",\"properties\":{\"scientificName\":"
-             "\"Orophila nivicola\"},\"geometry\":{\"type\":\"Polygon\",\"coordinates\":[[[0,0],[1,1],[1,0],[0,1],[0,0]]]}}]}");
+             "\"Oxmontia nivicola\"},\"geometry\":{\"type\":\"Polygon\",\"coordinates\":[[[0,0],[1,1],[1,0],[0,1],[0,0]]]}}]}");
   const auto valid = run("ogrinfo -q " + dir + "/bowtie.geojson -dialect SQLite -sql 'SELECT ST_IsValid(geometry) AS v FROM bowtie'");
   ASSERT_NE(valid.output.find("v (Integer) = 0"), std::string::npos) << valid.output;
   const auto r = run(envsift_binary() + " screen -q --points " + kPoints + demo_layers() + " --ranges " + dir +
                      "/bowtie.geojson --out " + dir + "/o.csv");
   ASSERT_EQ(r.exit_code, 0) << r.output;
   EXPECT_NE(r.output.find("1 feature(s) of 1 taxa are not valid polygons (a ring crosses itself or another, as GEOS finds) "
-                          "('Orophila nivicola'): distances near their edges may be wrong"),
+                          "('Oxmontia nivicola'): distances near their edges may be wrong"),
             std::string::npos)
       << r.output;
   // the demo's own ranges are valid for GEOS, and envsift says nothing of them

@@ -99,7 +99,7 @@ TEST(ProjectedPoints, UtmPointsSampleAsTheirWgs84SelvesAndReprojectAsGdaltransfo
 TEST(ProjectedPoints, MetreLikeCoordinatesWithoutACrsGetAHint) {
   const auto dir = temp_dir("projected-hint");
   write_file(dir + "/utm.csv", "occurrenceID,scientificName,decimalLongitude,decimalLatitude\n"
-                               "U1,Orophila nivicola,219326.9,74215.9\nU2,Orophila nivicola,212911.8,46225.5\n");
+                               "U1,Oxmontia nivicola,219326.9,74215.9\nU2,Oxmontia nivicola,212911.8,46225.5\n");
   auto r = run(envsift_binary() + " sample -q" + demo_layers() + " --points " + dir + "/utm.csv --out " + dir + "/o.csv");
   ASSERT_EQ(r.exit_code, 0) << r.output;
   EXPECT_NE(r.output.find("look like metres"), std::string::npos) << r.output;

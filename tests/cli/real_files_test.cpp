@@ -28,12 +28,12 @@ const std::string kHeader = "occurrenceID\tscientificName\tdecimalLongitude\tdec
 // A tab-separated export whose localities hold quotes at a field's start, inside, unclosed, and a
 // quote-comma sequence: literal text, one record per line.
 std::vector<std::vector<std::string>> tsv_rows() {
-  return {{"T1", "Orophila nivicola", "0.47831", "0.6708", "ridge 5\" north"},
-          {"T2", "Orophila nivicola", "0.42082", "0.41779", "\"Old mill\" road"},
-          {"T3", "Orophila nivicola", "0.5125", "0.26933", "\"Big rock, near hut"},
-          {"T4", "Orophila nivicola", "0.48159", "0.61887", "stream \"\", below"},
-          {"T5", "Orophila nivicola", "0.5496", "0.5767", "\","},
-          {"T6", "Orophila nivicola", "0.43217", "0.44899", "plain"}};
+  return {{"T1", "Oxmontia nivicola", "0.47831", "0.6708", "ridge 5\" north"},
+          {"T2", "Oxmontia nivicola", "0.42082", "0.41779", "\"Old mill\" road"},
+          {"T3", "Oxmontia nivicola", "0.5125", "0.26933", "\"Big rock, near hut"},
+          {"T4", "Oxmontia nivicola", "0.48159", "0.61887", "stream \"\", below"},
+          {"T5", "Oxmontia nivicola", "0.5496", "0.5767", "\","},
+          {"T6", "Oxmontia nivicola", "0.43217", "0.44899", "plain"}};
 }
 
 std::string as_tsv(const std::vector<std::vector<std::string>>& rows) {
@@ -81,8 +81,8 @@ TEST(RealFiles, CsvKeepsRfc4180Quoting) {
   const auto dir = temp_dir("csv-rfc4180");
   sample_file(dir, "/p.csv",
               "occurrenceID,scientificName,decimalLongitude,decimalLatitude,locality\n"
-              "C1,Orophila nivicola,0.47831,0.6708,\"plot 1, \"\"upper\"\" meadow\"\n"
-              "C2,Orophila nivicola,0.42082,0.41779,\"two\nlines\"\n");
+              "C1,Oxmontia nivicola,0.47831,0.6708,\"plot 1, \"\"upper\"\" meadow\"\n"
+              "C2,Oxmontia nivicola,0.42082,0.41779,\"two\nlines\"\n");
   const Table out = read_csv(dir + "/out.csv");
   ASSERT_EQ(out.rows.size(), 2u);
   EXPECT_EQ(out.rows[0][4], "plot 1, \"upper\" meadow");
@@ -110,16 +110,16 @@ TEST(RealFiles, DemWithoutElevationColumnsSaysSoAndReadsVerbatimElevation) {
   const auto dir = temp_dir("verbatim-elevation");
   // QM-0002's DEM is 1642 m and QM-0003's 161 m (the demo's fixtures, gdallocationinfo)
   write_file(dir + "/none.csv", "occurrenceID,scientificName,decimalLongitude,decimalLatitude\n"
-                                "V1,Orophila nivicola,0.42082,0.41779\n");
+                                "V1,Oxmontia nivicola,0.42082,0.41779\n");
   auto r = run(envsift_binary() + " screen -q --points " + dir + "/none.csv" + demo_layers() + " --dem dem --out " + dir + "/a.csv");
   ASSERT_EQ(r.exit_code, 0) << r.output;
   EXPECT_NE(r.output.find("no reported elevation"), std::string::npos) << r.output;
 
   write_file(dir + "/verbatim.csv", "occurrenceID,scientificName,decimalLongitude,decimalLatitude,verbatimElevation\n"
-                                    "V1,Orophila nivicola,0.42082,0.41779,1600-1700 m\n"
-                                    "V2,Orophila nivicola,0.81,0.33,1767 m\n"
-                                    "V3,Orophila nivicola,0.42082,0.41779,5000 to 5400 ft\n"
-                                    "V4,Orophila nivicola,0.42082,0.41779,high up\n");
+                                    "V1,Oxmontia nivicola,0.42082,0.41779,1600-1700 m\n"
+                                    "V2,Oxmontia nivicola,0.81,0.33,1767 m\n"
+                                    "V3,Oxmontia nivicola,0.42082,0.41779,5000 to 5400 ft\n"
+                                    "V4,Oxmontia nivicola,0.42082,0.41779,high up\n");
   r = run(envsift_binary() + " screen -q --points " + dir + "/verbatim.csv" + demo_layers() + " --dem dem --out " + dir + "/b.csv");
   ASSERT_EQ(r.exit_code, 0) << r.output;
   EXPECT_NE(r.output.find("read from verbatimElevation"), std::string::npos) << r.output;
@@ -134,15 +134,15 @@ TEST(RealFiles, DemWithoutElevationColumnsSaysSoAndReadsVerbatimElevation) {
 TEST(RealFiles, NotScoredBreakdownNamesTheReasonThatPreventedScoring) {
   const auto dir = temp_dir("not-scored");
   write_file(dir + "/p.csv", "occurrenceID;scientificName;decimalLongitude;decimalLatitude\n"
-                             "N1;Orophila nivicola;0,47831;95,5\n"   // decimal comma, out of range
-                             "N2;Orophila nivicola;0,5;\n"           // decimal comma, missing latitude
-                             "N3;Orophila nivicola\n"                // ragged, no coordinates
-                             "N4;Orophila nivicola;5,0;5,0\n");      // decimal comma, off every layer
+                             "N1;Oxmontia nivicola;0,47831;95,5\n"   // decimal comma, out of range
+                             "N2;Oxmontia nivicola;0,5;\n"           // decimal comma, missing latitude
+                             "N3;Oxmontia nivicola\n"                // ragged, no coordinates
+                             "N4;Oxmontia nivicola;5,0;5,0\n");      // decimal comma, off every layer
   auto r = run(envsift_binary() + " screen -q --points " + dir + "/p.csv" + demo_layers() + " --out " + dir + "/out.csv");
   ASSERT_EQ(r.exit_code, 0) << r.output;
-  EXPECT_NE(r.output.find("4 not scored (coord_missing 2, coord_out_of_range 1, outside_layer:dem 1)"), std::string::npos)
+  EXPECT_NE(r.output.find("4 not scored (outside_layer:dem 1, position_empty 2, position_off_globe 1)"), std::string::npos)
       << r.output;
-  EXPECT_EQ(r.output.find("not scored (coord_decimal_comma"), std::string::npos) << r.output;
+  EXPECT_EQ(r.output.find("not scored (read_decimal_comma"), std::string::npos) << r.output;
 }
 
 // Old Mac files end lines with a lone CR; databases and statistics packages write NA, null, NULL,
@@ -150,20 +150,20 @@ TEST(RealFiles, NotScoredBreakdownNamesTheReasonThatPreventedScoring) {
 TEST(RealFiles, CrOnlyLineEndingsAndMissingValueMarkers) {
   const auto dir = temp_dir("cr-and-markers");
   sample_file(dir, "/mac.csv", "occurrenceID,scientificName,decimalLongitude,decimalLatitude\r"
-                               "M1,Orophila nivicola,0.47831,0.6708\r"
-                               "M2,Orophila nivicola,NA,0.41779\r"
-                               "M3,Orophila nivicola,0.5125,null\r"
-                               "M4,Orophila nivicola,\\N,NULL\r"
-                               "M5,Orophila nivicola,-,0.61887\r");
+                               "M1,Oxmontia nivicola,0.47831,0.6708\r"
+                               "M2,Oxmontia nivicola,NA,0.41779\r"
+                               "M3,Oxmontia nivicola,0.5125,null\r"
+                               "M4,Oxmontia nivicola,\\N,NULL\r"
+                               "M5,Oxmontia nivicola,-,0.61887\r");
   const Table out = read_csv(dir + "/out.csv");
   ASSERT_EQ(out.rows.size(), 5u);
   EXPECT_EQ(out.header[1], "scientificName");
   const std::size_t status = out.column("status");
   EXPECT_EQ(out.rows[0][status], "ok");
-  for (std::size_t i = 1; i < 5; ++i) EXPECT_EQ(out.rows[i][status], "coord_missing") << out.rows[i][0];
+  for (std::size_t i = 1; i < 5; ++i) EXPECT_EQ(out.rows[i][status], "position_empty") << out.rows[i][0];
   EXPECT_EQ(out.rows[3][2], "\\N");  // the original text is kept
 
-  write_file(dir + "/values.csv", "occurrenceID,scientificName,t\nV1,Orophila nivicola,NA\nV2,Orophila nivicola,12.5\n");
+  write_file(dir + "/values.csv", "occurrenceID,scientificName,t\nV1,Oxmontia nivicola,NA\nV2,Oxmontia nivicola,12.5\n");
   const auto r = run(envsift_binary() + " screen -q --single-taxon --points " + dir + "/values.csv --value-columns t --out " +
                      dir + "/v.csv");
   ASSERT_EQ(r.exit_code, 0) << r.output;

@@ -85,7 +85,7 @@ TEST(DemoScreen, SmallTaxonIsNotJudged) {
   ASSERT_EQ(run(screen_command(dir + "/out.csv")).exit_code, 0);
   const Table out = read_csv(dir + "/out.csv");
   for (const auto& row : out.rows)
-    if (row[1] == "Petricola rara") {
+    if (row[1] == "Pexaltra rara") {
       EXPECT_EQ(row[out.column("status")],
                 "too_few_records:robust_z;too_few_records:mahalanobis;too_few_records:landscape");
       EXPECT_TRUE(row[out.column("rank")].empty());

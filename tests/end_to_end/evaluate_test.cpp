@@ -39,13 +39,13 @@ TEST(Evaluate, ReproducesThePublishedDemoTable) {
 TEST(Evaluate, NeitherOfTwoPopulationsIsFlaggedAsAWhole) {
   const StudyArea area = study_area(demo_layer_paths(), 200000, 5);
   const std::size_t records = 400;
-  const VirtualTaxon taxon = two_population_taxon(area, records, 0.4, 3.0, 0.25, 17, "Duplex bimontana");
+  const VirtualTaxon taxon = two_population_taxon(area, records, 0.4, 3.0, 0.25, 17, "Dyomonta bimontana");
   const auto dir = temp_dir("two-populations");
   {
     std::ofstream points(dir + "/points.csv");
     points << "occurrenceID,scientificName,decimalLongitude,decimalLatitude\n";
     for (std::size_t i = 0; i < records; ++i)
-      points << "P" << i << ",Duplex bimontana," << area.longitude[taxon.cells[i]] << "," << area.latitude[taxon.cells[i]] << "\n";
+      points << "P" << i << ",Dyomonta bimontana," << area.longitude[taxon.cells[i]] << "," << area.latitude[taxon.cells[i]] << "\n";
   }
   const auto r = run(envsift_binary() + " screen --points " + dir + "/points.csv" + demo_layers() + " --out " + dir + "/out.csv");
   ASSERT_EQ(r.exit_code, 0) << r.output;

@@ -46,8 +46,8 @@ TEST(LandscapeRun, ThreadsMemoryLimitAndOtherTaxaChangeNothing) {
   std::string only = "occurrenceID,scientificName,decimalLongitude,decimalLatitude\n";
   const Table in = read_csv(source_path("demo-points/occurrences.csv"));
   for (const auto& row : in.rows)
-    if (row[in.column("scientificName")] == "Orophila nivicola")
-      only += row[in.column("occurrenceID")] + ",Orophila nivicola," + row[in.column("decimalLongitude")] + "," +
+    if (row[in.column("scientificName")] == "Oxmontia nivicola")
+      only += row[in.column("occurrenceID")] + ",Oxmontia nivicola," + row[in.column("decimalLongitude")] + "," +
               row[in.column("decimalLatitude")] + "\n";
   write_file(dir + "/only.csv", only);
   auto alone = run(envsift_binary() + " screen -q --tests landscape --no-discs --points " + dir + "/only.csv" +

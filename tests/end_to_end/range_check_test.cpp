@@ -1,6 +1,6 @@
 // The range check in a run (--ranges). On the demo: the record off every layer (QM-0914, at 5.5 E,
 // 0.2 N, where a typo put it) is judged by its range alone, flagged, and ranked near the top; its
-// distance is checked against PROJ's geod (Debian proj-bin) on the same sphere — the Errantia
+// distance is checked against PROJ's geod (Debian proj-bin) on the same sphere — the Evrandia
 // vulgaris range is the island's square, so the nearest point is on its east edge, 1.0 E.
 // Also envsift's own contract: taxa without a range get no_range; a filter keeps only some parts;
 // names that look alike are said; a layer that cannot be used stops the run with its file; the
@@ -37,7 +37,7 @@ TEST(RangeCheck, ARecordOffEveryLayerIsJudgedByItsRangeAndRankedHigh) {
   ASSERT_EQ(g.exit_code, 0) << g.output;
   const double geod_m = std::stod(g.output.substr(g.output.rfind('\t') + 1));
   EXPECT_NEAR(std::stod(off[out.column("outside_range_stat")]), (geod_m - 30) / 1000, 0.01);
-  EXPECT_NE(off[out.column("reasons")].find("500 km outside the range of Errantia vulgaris"), std::string::npos)
+  EXPECT_NE(off[out.column("reasons")].find("500 km outside the range of Evrandia vulgaris"), std::string::npos)
       << off[out.column("reasons")];
   // a record inside its range: measured, 0; every taxon of the demo has a range
   EXPECT_EQ(rows["QM-0002"][out.column("outside_range_stat")], "0");
@@ -45,7 +45,7 @@ TEST(RangeCheck, ARecordOffEveryLayerIsJudgedByItsRangeAndRankedHigh) {
   // the summary counts it with its taxon, though no taxon test could judge it
   const Table taxa = read_csv(dir + "/taxa.csv");
   for (const auto& row : taxa.rows)
-    EXPECT_EQ(row[taxa.column("flagged_outside_range")], row[taxa.column("taxon")] == "Errantia vulgaris" ? "1" : "0");
+    EXPECT_EQ(row[taxa.column("flagged_outside_range")], row[taxa.column("taxon")] == "Evrandia vulgaris" ? "1" : "0");
   // the GeoPackage has the distance, as GDAL reads it
   const auto info = run("ogrinfo -q -where \"occurrenceID = 'QM-0914'\" " + dir + "/out.gpkg records");
   EXPECT_NE(info.output.find("outside_range_stat"), std::string::npos) << info.output;
@@ -54,7 +54,7 @@ TEST(RangeCheck, ARecordOffEveryLayerIsJudgedByItsRangeAndRankedHigh) {
   for (const auto& section : report_sections(read_file(dir + "/report.html"), dir)) {
     const std::string& map = section.pictures.at(0);
     EXPECT_NE(map.find("<title>published range</title>"), std::string::npos) << section.taxon;
-    if (section.taxon == "Errantia vulgaris") {
+    if (section.taxon == "Evrandia vulgaris") {
       EXPECT_NE(mark_of(map, "QM-0914").find("href=\"#suspect\""), std::string::npos);
     }
     ++maps;
@@ -132,10 +132,10 @@ TEST(RangeCheck, PartsFiltersAndTaxaWithoutARange) {
 }
 
 TEST(RangeCheck, NamesThatLookAlikeAreSaidNotMatched) {
-  const Small s = small("range-alike", square("Alpha one L.", -1, -1, 2));
+  const Small s = small("range-alike", square("Alpha one Vend.", -1, -1, 2));
   const auto r = run(screen_small(s, ""));
   ASSERT_EQ(r.exit_code, 0) << r.output;
-  EXPECT_NE(r.output.find("no range for taxon 'Alpha one', but the range layer has 'Alpha one L.'"), std::string::npos)
+  EXPECT_NE(r.output.find("no range for taxon 'Alpha one', but the range layer has 'Alpha one Vend.'"), std::string::npos)
       << r.output;
   const Table out = read_csv(s.dir + "/out.csv");
   EXPECT_NE(by_id(out)["A1"][out.column("status")].find("no_range"), std::string::npos);

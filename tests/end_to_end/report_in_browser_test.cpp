@@ -87,7 +87,7 @@ TEST_F(ReportInBrowser, OpensWithoutConsoleMessagesOrNetworkRequests) {
   EXPECT_TRUE(b.console.empty()) << b.console.front();
   EXPECT_TRUE(b.requests.empty()) << b.requests.front();
   EXPECT_NE(b.dom.find("Flags are reasons to look, not proof of error"), std::string::npos);
-  EXPECT_NE(b.dom.find("Orophila nivicola"), std::string::npos);
+  EXPECT_NE(b.dom.find("Oxmontia nivicola"), std::string::npos);
 }
 
 TEST_F(ReportInBrowser, Screenshot) {

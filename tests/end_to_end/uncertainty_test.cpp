@@ -20,7 +20,7 @@ const std::string kLayers = demo_layers() + " --tests robust_z,reverse_jackknife
 // The demo occurrences with QM-0003's uncertainty replaced.
 std::string with_uncertainty(const std::string& dir, const std::string& metres) {
   std::string csv = read_file(source_path("demo-points/occurrences.csv"));
-  const std::string row = "QM-0003,Orophila nivicola,0.81,0.33,";
+  const std::string row = "QM-0003,Oxmontia nivicola,0.81,0.33,";
   const auto at = csv.find(row);
   EXPECT_NE(at, std::string::npos);
   const auto end = csv.find(',', at + row.size());
@@ -73,7 +73,7 @@ TEST(Uncertainty, SummaryShowsTheElevationBandAndRecordsOutsideIt) {
   ASSERT_EQ(r.exit_code, 0) << r.output;
   const Table s = read_csv(dir + "/summary.csv");
   ASSERT_EQ(s.rows.size(), 4u);  // four taxa, sorted by name
-  const auto montane = row_of(s, "Orophila nivicola");
+  const auto montane = row_of(s, "Oxmontia nivicola");
   // the four montane records planted in the lowland lie below its band
   EXPECT_GE(std::stoi(montane[s.column("outside_elevation_band")]), 4);
   EXPECT_GT(std::stod(montane[s.column("elevation_band_low")]), 1000);

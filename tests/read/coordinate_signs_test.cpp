@@ -51,7 +51,7 @@ TEST(CoordinateSigns, NoMinusSignOrDashIsEverReadAsPlus) {
     if (leading.problem.empty()) {
       ++read_as_minus;
       EXPECT_DOUBLE_EQ(leading.value, -0.2);
-      EXPECT_EQ(leading.note, c == "-" ? "" : reason::coord_unicode_minus);
+      EXPECT_EQ(leading.note, c == "-" ? "" : reason::read_dash_as_minus);
     }
     const ParsedNumber trailing = parse_coordinate("0.2" + c, Axis::longitude);  // after the number: never a plus
     EXPECT_FALSE(trailing.problem.empty()) << "0.2" << c << " read as " << trailing.value;
@@ -65,12 +65,12 @@ TEST(CoordinateSigns, NoMinusSignOrDashIsEverReadAsPlus) {
 TEST(CoordinateSigns, SignsReadersDisagreeOnAreRefused) {
   for (const char* text : {"(0.2)", "(12.5)", "0.2-", "12.5+", "12\u00B030'-"}) {
     SCOPED_TRACE(text);
-    EXPECT_EQ(parse_coordinate(text, Axis::longitude).problem, reason::coord_sign_unclear);
+    EXPECT_EQ(parse_coordinate(text, Axis::longitude).problem, reason::position_sign_unclear);
   }
   // characters between the numbers that are no degree, minute or second mark: not a coordinate
   for (const char* text : {"1_0", "1(0", "12-30-15", "12,30,15", "12\u00A730", "1/2", "0.2\u00960"}) {
     SCOPED_TRACE(text);
-    EXPECT_EQ(parse_coordinate(text, Axis::longitude).problem, reason::coord_not_numeric);
+    EXPECT_EQ(parse_coordinate(text, Axis::longitude).problem, reason::position_not_number);
   }
   // the forms that were read before still are
   EXPECT_DOUBLE_EQ(parse_coordinate("-0.2", Axis::longitude).value, -0.2);
@@ -105,13 +105,13 @@ TEST(CoordinateSigns, AWindowsFilesEnDashIsAMinus) {
   EXPECT_EQ(checked, 128u);
   const auto dir = temp_dir("cp1252-minus");
   write_file(dir + "/p.csv", "occurrenceID,scientificName,decimalLongitude,decimalLatitude\n"
-                             "D,Orophila nivicola,\x96" "0.2,0.5\nE,Orophila nivicola,-0.2,0.5\n");
+                             "D,Oxmontia nivicola,\x96" "0.2,0.5\nE,Oxmontia nivicola,-0.2,0.5\n");
   const auto s = run(envsift_binary() + " sample -q" + demo_layers() + " --points " + dir + "/p.csv --out " + dir + "/o.csv");
   ASSERT_EQ(s.exit_code, 0) << s.output;
   const Table t = read_csv(dir + "/o.csv");
   const auto rows = by_id(t);
   EXPECT_EQ(rows.at("D")[t.column("decimalLongitude")], "\u20130.2");  // written back as UTF-8
-  EXPECT_EQ(rows.at("D")[t.column("status")], "latin1_converted;coord_unicode_minus");
+  EXPECT_EQ(rows.at("D")[t.column("status")], "latin1_converted;read_dash_as_minus");
   EXPECT_EQ(rows.at("D")[t.column("dem")], rows.at("E")[t.column("dem")]);
 }
 
@@ -120,18 +120,18 @@ TEST(CoordinateSigns, AWindowsFilesEnDashIsAMinus) {
 TEST(CoordinateSigns, ZeroZeroIsCodedAndNotSampled) {
   const auto dir = temp_dir("zero-zero");
   write_file(dir + "/p.csv", "occurrenceID,scientificName,decimalLongitude,decimalLatitude\n"
-                             "A,Orophila nivicola,0,0\nB,Orophila nivicola,0.0,-0.00\nC,Orophila nivicola,0.47831,0.6708\n"
-                             "D,Orophila nivicola,\u22120.2,0.5\nE,Orophila nivicola,-0.2,0.5\n");
+                             "A,Oxmontia nivicola,0,0\nB,Oxmontia nivicola,0.0,-0.00\nC,Oxmontia nivicola,0.47831,0.6708\n"
+                             "D,Oxmontia nivicola,\u22120.2,0.5\nE,Oxmontia nivicola,-0.2,0.5\n");
   const auto r = run(envsift_binary() + " sample -q" + demo_layers() + " --points " + dir + "/p.csv --out " + dir + "/o.csv");
   ASSERT_EQ(r.exit_code, 0) << r.output;
   const auto rows = by_id(read_csv(dir + "/o.csv"));
   const Table t = read_csv(dir + "/o.csv");
-  EXPECT_EQ(rows.at("A")[t.column("status")], reason::coord_zero_zero);
-  EXPECT_EQ(rows.at("B")[t.column("status")], reason::coord_zero_zero);
+  EXPECT_EQ(rows.at("A")[t.column("status")], reason::position_zero_zero);
+  EXPECT_EQ(rows.at("B")[t.column("status")], reason::position_zero_zero);
   EXPECT_EQ(rows.at("A")[t.column("dem")], "");
   EXPECT_EQ(rows.at("C")[t.column("status")], "ok");
   // the U+2212 record is sampled where the hyphen-minus record is
-  EXPECT_EQ(rows.at("D")[t.column("status")].find(reason::coord_unicode_minus), 0u);
+  EXPECT_EQ(rows.at("D")[t.column("status")].find(reason::read_dash_as_minus), 0u);
   for (const char* layer : {"dem", "temperature", "rainfall", "dry_months"})
     EXPECT_EQ(rows.at("D")[t.column(layer)], rows.at("E")[t.column(layer)]) << layer;
 }

@@ -78,8 +78,8 @@ TEST(PointReader, BadCoordinatesAreKeptWithReasonCodes) {
   PointTable t = read_points(dir + "/p.csv", {});
   ASSERT_EQ(t.records.size(), 9u);  // none dropped
   const std::vector<std::vector<std::string>> expected = {
-      {"coord_missing"}, {"coord_not_numeric"}, {"coord_not_finite"}, {"coord_not_finite"}, {"coord_not_finite"},
-      {"coord_out_of_range"}, {"coord_out_of_range", "coord_possibly_swapped"}, {}, {"ragged_row", "coord_missing"}};
+      {"position_empty"}, {"position_not_number"}, {"position_not_finite"}, {"position_not_finite"}, {"position_not_finite"},
+      {"position_off_globe"}, {"position_off_globe", "position_maybe_swapped"}, {}, {"ragged_row", "position_empty"}};
   for (std::size_t i = 0; i < expected.size(); ++i) EXPECT_EQ(t.problems(i), expected[i]) << "row " << i;
   EXPECT_DOUBLE_EQ(t.records[7].longitude, 1.5);
   EXPECT_DOUBLE_EQ(t.records[7].latitude, 2);

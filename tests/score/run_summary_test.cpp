@@ -21,10 +21,10 @@ TEST(RunSummary, ACodeOnManyLayersIsOneItemCountingRecords) {
   std::vector<std::string> all_layers;
   for (int l = 1; l <= 19; ++l) all_layers.push_back("nodata:layer" + std::to_string(l));
   for (int r = 0; r < 1500; ++r) s.count_codes(all_layers);                 // sea: every layer
-  for (int r = 0; r < 500; ++r) s.count_codes({"nodata:layer3", "coord_dms"});  // one layer
+  for (int r = 0; r < 500; ++r) s.count_codes({"nodata:layer3", "read_dms"});  // one layer
   s.count_codes({"too_few_records:robust_z"});
   const std::string line = s.codes_line();
-  EXPECT_EQ(line, "envsift: reason codes (records): coord_dms 500; nodata on 19 layers 2,000; too_few_records:robust_z 1");
+  EXPECT_EQ(line, "envsift: reason codes (records): nodata on 19 layers 2,000; read_dms 500; too_few_records:robust_z 1");
   EXPECT_EQ(s.codes.at("nodata:layer3"), 2000u);  // per code, as the summary file and report keep them
 }
 

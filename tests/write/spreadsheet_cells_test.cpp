@@ -37,7 +37,7 @@ TEST(SpreadsheetCells, NeutralisedCellsReadBackExactly) {
     EXPECT_FALSE(live_formula(safe)) << safe;
     EXPECT_EQ(from_spreadsheet_safe(safe), cell);
   }
-  for (const char* plain : {"-12.5", "+3", "1e-3", "Orophila nivicola", "'quoted", ""}) {
+  for (const char* plain : {"-12.5", "+3", "1e-3", "Oxmontia nivicola", "'quoted", ""}) {
     EXPECT_EQ(spreadsheet_safe(plain), plain);  // numbers stay numbers, text stays as it is
     EXPECT_EQ(from_spreadsheet_safe(plain), plain);
   }

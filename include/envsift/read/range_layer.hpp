@@ -26,7 +26,7 @@ namespace envsift {
 struct RangeSource {
   std::string path;
   std::string taxon_field = "scientificName";
-  std::string filter;  // an OGR SQL WHERE clause, e.g. "seasonal IN (1, 2)"; empty: every feature
+  std::string filter;  // an OGR SQL WHERE clause, e.g. "season = 'resident'"; empty: every feature
 };
 
 // One taxon's range: containment by GEOS (through GDAL, a prepared geometry) in

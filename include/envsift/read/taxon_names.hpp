@@ -1,8 +1,8 @@
 // Taxon names as people type them. Names are compared after Unicode NFC normalisation (Unicode
 // Standard Annex #15; "é" typed as one character or as e + combining accent is one name) and
 // whitespace folding (no-break spaces, tabs, doubled spaces, leading and trailing space), so
-// `Abies  alba` and `Abies alba` are one taxon. Names that then differ only by letter case or by
-// a trailing authorship (`Abies alba Mill.`) are kept apart — they may be different taxa — but
+// `Thraxula  alba` and `Thraxula alba` are one taxon. Names that then differ only by letter case or by
+// a trailing authorship (`Thraxula alba Vend.`) are kept apart — they may be different taxa — but
 // are listed together, for a person to decide.
 #pragma once
 #include <string>
