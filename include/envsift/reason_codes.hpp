@@ -1,6 +1,6 @@
 // Reason codes: short, stable words written to the `status` column when a record (or one of its
 // layer values) could not be used. Several codes are joined with ';'. Layer codes carry the layer
-// name after a colon, e.g. `nodata:precip`. The README lists them all.
+// name after a colon, e.g. `nodata:precip`. docs/reference.md lists them all.
 #pragma once
 #include <string>
 #include <vector>

@@ -23,7 +23,7 @@
 //     skewed layers (--scale skew), mapped to the normal scores of its landscape values (Φ⁻¹ of
 //     the mid-rank ECDF, linear between the landscape's values and beyond them with the average
 //     slope), so that it is roughly normal over the landscape and the quadratic sees a long tail
-//     as a long tail. The linear scale is the default because it measured better (README,
+//     as a long tail. The linear scale is the default because it measured better (docs/evaluation.md,
 //     envsift evaluate): a response quadratic in the layer's own units is then exact;
 //   - collinear layers: the mapped layers are projected on the principal components of the
 //     landscape (99 % of its variance, at most 6 components), whitened;
@@ -417,7 +417,7 @@ TestEntry landscape_entry() {
       "landscape flags a record whose environment is more than R times as common in the taxon's landscape as among its "
       "records (a fitted presence-against-landscape model). R = (1 - share of errors) / share: 5 says a record is "
       "more likely an error than not where errors are 1 in 6 of the records in such environments; 5 measured best "
-      "(README, envsift evaluate)",
+      "(docs/evaluation.md, envsift evaluate)",
       [](ScreenSettings& s) -> double& { return s.tests.landscape_ratio; }, above(1)));
   e.options.push_back(choice_option(
       "landscape-area",

@@ -7,8 +7,8 @@
 //   D²_i = (x_i − μ)ᵀ Σ⁻¹ (x_i − μ),   flagged when D²_i > χ²_{k, q}   (default q = 0.975)
 //
 // Climate layers are strongly collinear and many taxa have few records, so Σ is often singular
-// or nearly so. envsift measures D² in a reduced space (envsift's choice, documented in the
-// README): layers without spread are left out, the others standardised, and projected on the
+// or nearly so. envsift measures D² in a reduced space (envsift's choice, documented in
+// docs/methods.md): layers without spread are left out, the others standardised, and projected on the
 // leading principal components of their correlation matrix, keeping a component only when its
 // eigenvalue exceeds `eigen_floor` (1e-6) times the largest and keeping at most one component
 // per `rows_per_dimension` (3) reference rows. The dimension k actually used is reported per

@@ -8,7 +8,7 @@
 //
 // Leys et al. call 3 very conservative, 2.5 moderately and 2 poorly conservative; envsift's
 // default is 4 because a record is judged on several layers at once and beside two tests of all
-// layers together: 4 measured best with them (README, envsift evaluate).
+// layers together: 4 measured best with them (docs/evaluation.md, envsift evaluate).
 //
 // MAD = 0 happens when more than half the values are equal (many records in one cell, a layer
 // of few classes). Sn and Qn (Rousseeuw & Croux 1993) are then 0 as well, so they are no
@@ -130,7 +130,7 @@ TestEntry robust_z_entry() {
   e.options.push_back(real_option("z-cutoff", "Z",
                                   "robust_z flags |z| > Z. 3 is 'very conservative' in Leys et al. (2013); envsift "
                                   "uses 4 because a record is judged on every layer and by the tests of all layers "
-                                  "together (README, evaluation); lower values flag more good records",
+                                  "together (docs/evaluation.md); lower values flag more good records",
                                   [](ScreenSettings& s) -> double& { return s.tests.z_cutoff; }, above(0)));
   e.describe = [](const ScreenSettings& s) {
     char cutoff[32];

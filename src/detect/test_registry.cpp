@@ -55,7 +55,7 @@ OptionSpec tests_option() {
   std::string help = "tests to run, comma-separated.";
   for (const auto& e : test_registry())
     if (e.make_detector) help += " " + e.name + ": " + e.help;
-  help += " The defaults are what the evaluation supports (README, envsift evaluate).";
+  help += " The defaults are what the evaluation supports (docs/evaluation.md, envsift evaluate).";
   OptionSpec o{"tests", "LIST", help};
   o.set = [](ScreenSettings& s, const std::string& text) { s.tests.tests = split_list(text); };
   o.get = [](const ScreenSettings& s) {
@@ -84,7 +84,7 @@ const std::vector<OptionSpec>& test_options() {
         "how robust z and the Mahalanobis distances measure distance on a layer. mad: one spread, 1.4826 × MAD, for both "
         "sides of the taxon's median; skew: each side its own spread, from the adjusted boxplot's fence on that side "
         "(Hubert & Vandervieren 2008), so a long tail (rainfall, slope, distances) is not flagged. mad is the default "
-        "because it measured better with envsift evaluate (README); try both on your rasters",
+        "because it measured better with envsift evaluate (docs/evaluation.md); try both on your rasters",
         [](ScreenSettings& s) -> std::string& { return s.tests.scale; }, {"mad", "skew"}));
     v.push_back(real_option("common-share", "S",
                             "the one-layer tests never flag a value that at least this share of the taxon's values hold "

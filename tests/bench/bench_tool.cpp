@@ -1,5 +1,5 @@
 // envsift_bench: synthetic workloads and timings for scripts/bench*. Not a test: numbers from
-// here go to the README's performance tables.
+// here go to the performance tables in docs/big-runs.md.
 //
 //   envsift_bench layers DIR COUNT WIDTH HEIGHT [W S E N]  float32 GeoTIFFs, tiled, DEFLATE (default: the globe)
 //   envsift_bench points FILE N TAXA SEED [W S E N]        clustered occurrences in Darwin Core columns

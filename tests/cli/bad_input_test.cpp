@@ -1,4 +1,4 @@
-// One test per row of the README's bad-input table: what envsift does with each kind of broken
+// One test per row of docs/usage.md's bad-input table: what envsift does with each kind of broken
 // input, the exact reason code or error it gives, and that no record is lost. Points lie on the
 // demo island (demo-rasters/dem.tif covers longitude and latitude -1…1).
 #include <gtest/gtest.h>

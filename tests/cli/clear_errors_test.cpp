@@ -1,5 +1,5 @@
 // Every way a run stops says what happened and what to do, in one line, and leaves nothing behind
-// (envsift's own contract; the exit codes are the README's table). The cases are the ones seen by
+// (envsift's own contract; the exit codes are docs/reference.md's table). The cases are the ones seen by
 // a new user, and more of each class: words that belong to no option, an option without its value,
 // numbers that are no count, columns that cannot be told apart, bytes a terminal would obey,
 // a file that is no points file, a temporary directory that cannot take the spill, memory that

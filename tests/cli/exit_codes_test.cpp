@@ -1,4 +1,4 @@
-// The command line: distinct exit codes (documented in the README) and one-line errors that say
+// The command line: distinct exit codes (documented in docs/reference.md) and one-line errors that say
 // what to do.
 #include <gtest/gtest.h>
 

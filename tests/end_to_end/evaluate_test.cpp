@@ -1,5 +1,5 @@
 // `envsift evaluate` end to end. The published table (docs/evaluation/demo.csv, shown in the
-// README) is reproduced byte for byte by the same command — envsift's own contract of
+// docs/evaluation.md) is reproduced byte for byte by the same command — envsift's own contract of
 // determinism, also across thread counts. A taxon with two populations in different
 // environments (virtual_taxa.hpp) keeps both under the default settings: neither is flagged as
 // a whole: it is split into two populations (group/populations.hpp), and judged as one taxon the
@@ -24,14 +24,14 @@ TEST(Evaluate, ReproducesThePublishedDemoTable) {
     ASSERT_EQ(r.exit_code, 0) << r.output;
     EXPECT_EQ(read_file(dir + "/table.csv"), read_file(source_path("docs/evaluation/demo.csv"))) << threads << " threads";
   }
-  // and the README shows the combined row's numbers
+  // and docs/evaluation.md shows the combined row's numbers
   const Table t = read_csv(source_path("docs/evaluation/demo.csv"));
   const auto combined_all = std::find_if(t.rows.begin(), t.rows.end(), [](const std::vector<std::string>& row) {
     return row[0] == "combined" && row[1] == "all";
   });
   ASSERT_NE(combined_all, t.rows.end());
   const auto& combined = *combined_all;
-  const std::string readme = read_file(source_path("README.md"));
+  const std::string readme = read_file(source_path("docs/evaluation.md"));
   for (const char* column : {"recall_unsuitable", "false_flag_rate", "average_precision"})
     EXPECT_NE(readme.find(combined[t.column(column)]), std::string::npos) << column;
 }

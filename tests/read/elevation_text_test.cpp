@@ -38,7 +38,7 @@ TEST(ElevationText, AmbiguousOrUnknownIsAReasonCode) {
   EXPECT_DOUBLE_EQ(parse_elevation("1200.5").metres, 1200.5);
 }
 
-// The README's table of accepted forms, row by row (1 ft = 0.3048 m exactly: NIST SP 811).
+// docs/usage.md's table of accepted forms, row by row (1 ft = 0.3048 m exactly: NIST SP 811).
 TEST(ElevationText, EveryFormOfTheReadmeTable) {
   struct Form {
     const char* text;

@@ -46,7 +46,7 @@ TEST(ValueTable, FloatColumnsHoldTheCellsOwnValues) {
       const int col = static_cast<int>((lon[i] - 10) / 0.1), row = static_cast<int>((50 - lat[i]) / 0.1);
       double cell = 0;
       ASSERT_EQ(ds->GetRasterBand(1)->RasterIO(GF_Read, col, row, 1, 1, &cell, 1, 1, GDT_Float64, 0, 0), CE_None);
-      // a scaled integer is rounded to its scale's decimals (README, sampling): 1636 × 0.1 is 163.6
+      // a scaled integer is rounded to its scale's decimals (docs/usage.md, sampling): 1636 × 0.1 is 163.6
       const double expected = scale == 1 ? cell : std::round(cell * scale * 10) / 10;
       EXPECT_EQ(nearest.values(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(l)), expected) << specs[l].name << " " << i;
     }

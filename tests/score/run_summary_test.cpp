@@ -1,4 +1,4 @@
-// The one-line summaries on stderr (envsift's own format, README "Reason codes"): a 10-million
+// The one-line summaries on stderr (envsift's own format, docs/reference.md "Reason codes"): a 10-million
 // record run must stay readable, so a code on many layers is one item counting records, not one
 // item per layer; and counts carry thousands separators.
 #include <gtest/gtest.h>

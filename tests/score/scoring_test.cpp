@@ -1,4 +1,4 @@
-// The combined score and the ranking, as documented in the README ("How suspicion is scored"):
+// The combined score and the ranking, as documented in docs/methods.md ("How suspicion is scored"):
 // score = max over the tests that judged a record of its severity (1 at the test's cutoff);
 // rank 1 = highest score, ties in input order, unscored records unranked.
 #include "envsift/score/scoring.hpp"

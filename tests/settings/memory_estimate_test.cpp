@@ -2,7 +2,7 @@
 // timed: these check that the estimate of a 10-million-record run stays under the limit the run
 // reports, that it grows linearly with the records, and that a real run's peak resident memory
 // (getrusage, reported by --timings) stays under its estimate. The measured 10 M figures are in
-// the README's performance table (scripts/bench 10000000 20000).
+// docs/big-runs.md's performance table (scripts/bench 10000000 20000).
 #include <gtest/gtest.h>
 
 #include <algorithm>

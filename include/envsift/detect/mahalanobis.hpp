@@ -18,7 +18,7 @@ struct MahalanobisOptions {
   double eigen_floor = 1e-6;           // components with eigenvalue < floor · largest are dropped
   // Measure each layer on the taxon's skew-adjusted scale first (skew_scale.hpp): distance from
   // the median in units of the side's adjusted-boxplot scale, so a long tail is not an outlier.
-  bool skew_adjusted = false;  // off by default, as for robust z (README, evaluation)
+  bool skew_adjusted = false;  // off by default, as for robust z (docs/evaluation.md)
 };
 
 struct Estimate {

@@ -12,7 +12,7 @@ struct RobustZOptions {
   std::size_t min_records = 10;  // fewer reference values on a layer: that layer is not judged
   // Scale each side of the median by its adjusted-boxplot fence (skew_scale.hpp) instead of one
   // MAD for both: a long tail on one side is then not flagged, a short one is judged tightly.
-  // Off by default: the evaluation (README) measured it worse on virtual taxa.
+  // Off by default: the evaluation (docs/evaluation.md) measured it worse on virtual taxa.
   bool skew_adjusted = false;
   double common_share = 0.05;    // a value held by this share of the reference is not flagged
 };

@@ -17,7 +17,7 @@ struct ParsedElevation {
 // allowed; an approximate marker before or after the number is read and noted. Refused as
 // ambiguous (elevation_ambiguous): a thousands separator that may be a decimal mark — "1,200"
 // and "1.200" are 1.2 in some locales and 1200 in others. Refused as unreadable: several
-// numbers, unknown units. The README's table lists every accepted form.
+// numbers, unknown units. docs/usage.md lists every accepted form.
 ParsedElevation parse_elevation(std::string_view text);
 
 }  // namespace envsift

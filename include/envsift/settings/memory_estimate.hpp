@@ -1,8 +1,8 @@
 // What a run will hold in memory at its peak, estimated before sampling from the record count,
 // the layers and the settings, so that a run that would not fit is warned about at the start
 // (with the way out: --shard) rather than killed by the system half way. Each part is what the
-// code holds (sizes of its structures), measured against real runs in the README's performance
-// table; the estimate is meant as an upper bound.
+// code holds (sizes of its structures), measured against real runs in
+// docs/big-runs.md's performance table; the estimate is meant as an upper bound.
 #pragma once
 #include <cstddef>
 #include <string>

@@ -47,10 +47,10 @@ struct TestSettings {
   bool all_records = false;           // estimate from every record, not one per distinct cell
   unsigned long long seed = 1;        // randomised tests
   std::string populations = "split";  // split | one
-  std::string combine = "mean";       // how severities make the score: max | mean (README, evaluation)
+  std::string combine = "mean";       // how severities make the score: max | mean (docs/evaluation.md)
   double max_flagged_share = 0.15;    // population guard
-  double z_cutoff = 4.0;              // robust_z (README, evaluation)
-  double chi2_quantile = 0.995;       // mahalanobis, mahalanobis_robust (README, evaluation)
+  double z_cutoff = 4.0;              // robust_z (docs/evaluation.md)
+  double chi2_quantile = 0.995;       // mahalanobis, mahalanobis_robust (docs/evaluation.md)
   std::string mcd_start = "deterministic";  // mahalanobis_robust: deterministic | random
   // landscape: flag when the record's environment is this many times more common in the taxon's
   // landscape than among its records; where the landscape is drawn (landscape_sample.hpp)
