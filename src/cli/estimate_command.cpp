@@ -9,8 +9,9 @@
 #include "envsift/errors.hpp"
 #include "envsift/run_summary.hpp"
 #include "envsift/sample/raster_stack.hpp"
+#include "envsift/detect/landscape.hpp"
 #include "envsift/settings/memory_estimate.hpp"
-#include "envsift/settings/option_spec.hpp"
+#include "envsift/option_spec.hpp"
 #include "options.hpp"
 
 namespace envsift::cli {
@@ -60,7 +61,7 @@ int estimate_command(int argc, char** argv) {
   if (shape.threads == 0 || shape.threads > kMaxThreads)
     throw UsageError("--threads must be between 1 and " + std::to_string(kMaxThreads) + ", not " + threads_text);
   shape.report = report, shape.gis = gis;
-  shape.landscape_cells = no_landscape ? 0 : TestSettings{}.landscape_cells;
+  shape.landscape_cells = no_landscape ? 0 : LandscapeSettings{}.cells;
   SamplingSettings sampling;
   sampling.memory_limit_mb = memory_limit;
   const MemoryEstimate e = estimate_memory(shape, sampling);

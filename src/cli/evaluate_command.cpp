@@ -7,6 +7,7 @@
 #include "envsift/detect/test_registry.hpp"
 #include "envsift/errors.hpp"
 #include "envsift/evaluate/evaluation.hpp"
+#include "envsift/run/validate.hpp"
 #include "envsift/settings/run_options.hpp"
 #include "options.hpp"
 
@@ -16,10 +17,10 @@ namespace {
 // The screen's options an evaluation takes: its layers and how they are sampled, and every test option.
 std::vector<OptionSpec> screen_options_for_evaluation() {
   std::vector<OptionSpec> options;
-  for (const auto* group : {&input_options(), &sampling_options()})
-    for (const auto& o : *group)
+  for (const auto& group : {input_run_options(), sampling_run_options()})
+    for (const auto& o : group)
       if (o.name == "layers" || o.name == "method" || o.name == "assume-crs" || o.name == "threads") options.push_back(o);
-  options.insert(options.end(), test_options().begin(), test_options().end());
+  for (const auto& o : test_run_options()) options.push_back(o);
   return options;
 }
 
@@ -84,8 +85,8 @@ int evaluate_command(int argc, char** argv) {
   o.sampling.discs = false;
   o.command_line = command_line("evaluate", argc, argv);
   // before the virtual taxa are built, which takes a while (run_screen checks the rest)
-  validate_tests(o);
-  check_options(sampling_options(), o);
+  validate_tests(o.tests, test_context(o.input));
+  check_options(sampling_options(), o.sampling);
   apply_process_settings(o.sampling);
   e.taxa.seed = o.tests.seed;
   read_range(vm, "taxon-records", "MIN-MAX with 3 <= MIN <= MAX, e.g. 12-3000", e.taxa.min_records, e.taxa.max_records);

@@ -8,7 +8,7 @@
 #include <vector>
 
 #include "envsift/run_summary.hpp"
-#include "envsift/settings/option_spec.hpp"
+#include "envsift/option_spec.hpp"
 #include "envsift/settings/settings.hpp"
 
 namespace envsift::cli {

@@ -1,6 +1,7 @@
 #include "commands.hpp"
 #include "envsift/run/run.hpp"
 #include "envsift/run/validate.hpp"
+#include "envsift/settings/run_options.hpp"
 #include "options.hpp"
 #include "progress_display.hpp"
 

@@ -11,7 +11,7 @@
 #include "envsift/read/range_layer.hpp"
 #include "envsift/read/taxon_names.hpp"
 #include "envsift/reason_codes.hpp"
-#include "envsift/record_table.hpp"
+#include "envsift/table/record_table.hpp"
 
 namespace envsift {
 
@@ -35,19 +35,13 @@ Finding judge_range_distance(double outside_m, double radius_m, double tolerance
   return f;
 }
 
-namespace {
-
-RangeSource source_of(const RangeSettings& s) { return {s.path, s.taxon_field, s.filter}; }
-
-}  // namespace
-
 void RangeCheck::prepare(RecordTable& t) {
   table_ = &t;
   const std::size_t n = t.size();
   outside_m_.assign(n, NAN);
   radius_m_.assign(n, 0);
   has_range_.assign(n, 0);
-  RangeLayer index(source_of(settings_));
+  RangeLayer index(settings_.source());
   t.warnings.insert(t.warnings.end(), index.notes().begin(), index.notes().end());
   const auto& taxa = t.points.taxa;
   std::vector<std::vector<std::size_t>> records_of(taxa.size());
@@ -81,7 +75,7 @@ void RangeCheck::prepare(RecordTable& t) {
     for (std::ptrdiff_t w = 0; w < static_cast<std::ptrdiff_t>(with_range.size()); ++w) {
       const auto k = static_cast<std::size_t>(w);
       try {
-        if (!mine) mine = std::make_unique<RangeLayer>(source_of(settings_));  // GDAL handles are per thread
+        if (!mine) mine = std::make_unique<RangeLayer>(settings_.source());  // GDAL handles are per thread
         const auto range = mine->load(taxa[with_range[k]]);
         skipped[k] = range->skipped, invalid[k] = range->invalid;
         if (range->vertices() == 0) continue;  // only features without polygons: no range
@@ -127,38 +121,6 @@ Finding RangeCheck::judge(std::size_t i) const {
   }
   if (std::isnan(outside_m_[i])) return f;  // no coordinates: their own codes say so
   return judge_range_distance(outside_m_[i], radius_m_[i], settings_.tolerance_km, table_->points.taxon(i));
-}
-
-TestEntry range_check_entry() {
-  TestEntry e;
-  e.name = RangeCheck::kName;
-  e.options.push_back(text_option("ranges", "FILE",
-                                  "taxa's published ranges: an OGR polygon layer (GeoPackage, Shapefile, GeoJSON; any "
-                                  "CRS) with a taxon field; flag records farther than --range-tolerance outside their "
-                                  "taxon's range (outside_range)",
-                                  [](ScreenSettings& s) -> std::string& { return s.ranges.path; }));
-  e.options.push_back(text_option("range-taxon-field", "NAME", "the range layer's field naming the taxon",
-                                  [](ScreenSettings& s) -> std::string& { return s.ranges.taxon_field; }));
-  e.options.push_back(text_option("range-filter", "SQL",
-                                  "use only the range features this OGR SQL WHERE clause selects, e.g. "
-                                  "\"season = 'resident'\" (a field of your layer) for the parts where the taxon lives all year",
-                                  [](ScreenSettings& s) -> std::string& { return s.ranges.filter; }));
-  e.options.push_back(real_option("range-tolerance", "KM",
-                                  "flag only records more than KM kilometres outside their taxon's range, beyond their "
-                                  "uncertainty (range maps hold only at grains of about 1-2 degrees)",
-                                  [](ScreenSettings& s) -> double& { return s.ranges.tolerance_km; }, above(0)));
-  e.describe = [](const ScreenSettings& s) {
-    char tolerance[32];
-    std::snprintf(tolerance, sizeof tolerance, "%.0f", s.ranges.tolerance_km);
-    return std::string(RangeCheck::kName) + ": the record lies more than " + tolerance + " km outside its taxon's range in " +
-           s.ranges.path + " (great-circle distance from its uncertainty disc)";
-  };
-  e.make_check = [](const ScreenSettings& s) -> std::unique_ptr<RecordCheck> { return std::make_unique<RangeCheck>(s.ranges); };
-  e.wanted_check = [](const ScreenSettings& s) { return !s.ranges.path.empty(); };
-  e.validate = [](const ScreenSettings& s) {
-    if (!s.ranges.path.empty()) RangeLayer{source_of(s.ranges)};  // a layer that cannot be used stops the run now
-  };
-  return e;
 }
 
 }  // namespace envsift

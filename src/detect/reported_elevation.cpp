@@ -48,7 +48,7 @@ Finding check_reported_elevation(const ReportedElevation& reported, const DemRan
 #include "envsift/errors.hpp"
 #include "envsift/read/elevation_text.hpp"
 #include "envsift/reason_codes.hpp"
-#include "envsift/record_table.hpp"
+#include "envsift/table/record_table.hpp"
 
 namespace envsift {
 
@@ -63,11 +63,11 @@ DemRange dem_range(const RecordTable& t, std::size_t i, std::size_t dem) {
 }
 
 void ReportedElevationCheck::prepare(RecordTable& t) {
-  const auto dem = t.layer_index(dem_layer_);
+  const auto dem = t.layer_index(settings_.dem_layer);
   if (!dem) {
     std::string names;
     for (const auto& n : t.layer_names()) names += (names.empty() ? "" : ", ") + n;
-    throw UsageError("--dem " + dem_layer_ + " is not one of the layers (" + names + ")");
+    throw UsageError("--dem " + settings_.dem_layer + " is not one of the layers (" + names + ")");
   }
   const std::size_t n = t.size();
   dem_.resize(n);
@@ -81,23 +81,23 @@ void ReportedElevationCheck::prepare(RecordTable& t) {
   };
   std::string found;
   for (const auto& c : columns) found += (found.empty() ? "'" : ", '") + c + "'";
-  const ColumnNames standard;
-  for (const auto& [name, standard_name, option] : {std::tuple{columns_.min_elevation, standard.min_elevation, "--min-elevation-column"},
-                                                    std::tuple{columns_.max_elevation, standard.max_elevation, "--max-elevation-column"}})
+  const ElevationSettings standard;
+  for (const auto& [name, standard_name, option] : {std::tuple{settings_.min_column, standard.min_column, "--min-elevation-column"},
+                                                    std::tuple{settings_.max_column, standard.max_column, "--max-elevation-column"}})
     if (name != standard_name && !column(name))
       throw InputError(t.points.source, 1, "no reported elevation column '" + name + "' (columns found: " + found + ")",
                        std::string("name the column with ") + option + ", or leave the option out");
-  const auto low = column(columns_.min_elevation), high = column(columns_.max_elevation);
+  const auto low = column(settings_.min_column), high = column(settings_.max_column);
   const auto verbatim = low || high ? std::nullopt : column(kVerbatimElevation);
   if (!low && !high && !verbatim) {
-    t.warnings.push_back("--dem " + dem_layer_ + ": the points have no reported elevation (no column " +
-                         columns_.min_elevation + ", " + columns_.max_elevation + " or " + kVerbatimElevation +
+    t.warnings.push_back("--dem " + settings_.dem_layer + ": the points have no reported elevation (no column " +
+                         settings_.min_column + ", " + settings_.max_column + " or " + kVerbatimElevation +
                          "), so the elevation check judged no record; name the columns with --min-elevation-column");
     return;
   }
   if (verbatim)
-    t.warnings.push_back("--dem " + dem_layer_ + ": reported elevations read from " + kVerbatimElevation + " (no " +
-                         columns_.min_elevation + " or " + columns_.max_elevation + " column)");
+    t.warnings.push_back("--dem " + settings_.dem_layer + ": reported elevations read from " + kVerbatimElevation + " (no " +
+                         settings_.min_column + " or " + settings_.max_column + " column)");
   std::vector<std::string> fields;
   for (std::size_t i = 0; i < n; ++i) {
     t.points.fields.read(i, fields);
@@ -118,41 +118,7 @@ void ReportedElevationCheck::prepare(RecordTable& t) {
 }
 
 Finding ReportedElevationCheck::judge(std::size_t i) const {
-  return check_reported_elevation(reported_[i], dem_[i], tolerance_m_, dem_layer_);
-}
-
-TestEntry reported_elevation_entry() {
-  TestEntry e;
-  e.name = ReportedElevationCheck::kName;
-  e.options.push_back(text_option("dem", "LAYER",
-                                  "the layer holding elevation in metres: compare each record's reported elevation "
-                                  "with it (flag elevation_mismatch)",
-                                  [](ScreenSettings& s) -> std::string& { return s.elevation.dem_layer; }));
-  e.options.push_back(real_option("elevation-tolerance", "M",
-                                  "flag only when the reported elevation and the DEM's range within the record's "
-                                  "uncertainty are more than M metres apart (DEM error, and label elevations rounded "
-                                  "to 50-100 m)",
-                                  [](ScreenSettings& s) -> double& { return s.elevation.tolerance_m; }, above(0)));
-  e.options.push_back(text_option("min-elevation-column", "NAME",
-                                  "reported minimum elevation (metres, or with a unit: '1200 m', '3900 ft')",
-                                  [](ScreenSettings& s) -> std::string& { return s.input.reader.columns.min_elevation; }));
-  e.options.push_back(text_option("max-elevation-column", "NAME", "reported maximum elevation",
-                                  [](ScreenSettings& s) -> std::string& { return s.input.reader.columns.max_elevation; }));
-  e.describe = [](const ScreenSettings& s) {
-    char tolerance[32];
-    std::snprintf(tolerance, sizeof tolerance, "%.0f", s.elevation.tolerance_m);
-    return std::string(ReportedElevationCheck::kName) + ": the reported elevation is more than " + tolerance +
-           " m outside the range of " + s.elevation.dem_layer + " within the record's uncertainty disc";
-  };
-  e.make_check = [](const ScreenSettings& s) -> std::unique_ptr<RecordCheck> {
-    return std::make_unique<ReportedElevationCheck>(s.elevation.dem_layer, s.elevation.tolerance_m, s.input.reader.columns);
-  };
-  e.wanted_check = [](const ScreenSettings& s) { return !s.elevation.dem_layer.empty(); };
-  e.validate = [](const ScreenSettings& s) {
-    if (!s.elevation.dem_layer.empty() && !s.input.value_columns.empty())
-      throw UsageError("--dem needs --layers: the elevation check compares with a sampled DEM");
-  };
-  return e;
+  return check_reported_elevation(reported_[i], dem_[i], settings_.tolerance_m, settings_.dem_layer);
 }
 
 }  // namespace envsift

@@ -115,39 +115,3 @@ double small_sample_cutoff(double cutoff, std::size_t n) {
 }
 
 }  // namespace envsift
-
-// Registry entry (detect/test_registry.cpp).
-#include "envsift/detect/test_registry.hpp"
-#include <cstdio>
-
-namespace envsift {
-
-TestEntry robust_z_entry() {
-  TestEntry e;
-  e.name = RobustZ::kName;
-  e.is_default = true;
-  e.help = "one layer at a time, distance from the taxon's median in robust SDs;";
-  e.options.push_back(real_option("z-cutoff", "Z",
-                                  "robust_z flags |z| > Z. 3 is 'very conservative' in Leys et al. (2013); envsift "
-                                  "uses 4 because a record is judged on every layer and by the tests of all layers "
-                                  "together (docs/evaluation.md); lower values flag more good records",
-                                  [](ScreenSettings& s) -> double& { return s.tests.z_cutoff; }, above(0)));
-  e.describe = [](const ScreenSettings& s) {
-    char cutoff[32];
-    std::snprintf(cutoff, sizeof cutoff, "%.2f", s.tests.z_cutoff);
-    return std::string(RobustZ::kName) + ": flags a value more than " + cutoff +
-           " robust SD (1.4826 × MAD) from the taxon's median on any layer, times (1 + 6/n + 30/n²) for n values";
-  };
-  e.make_detector = [](const ScreenSettings& s) -> std::unique_ptr<Detector> {
-    RobustZOptions o;
-    o.cutoff = s.tests.z_cutoff;
-    o.min_records = s.tests.min_records;
-    o.skew_adjusted = s.tests.scale == "skew";
-    o.common_share = s.tests.common_share;
-    return std::make_unique<RobustZ>(o);
-  };
-  e.cutoffs = CutoffStyle{"robust z", 0, "where robust z starts flagging"};
-  return e;
-}
-
-}  // namespace envsift

@@ -6,7 +6,7 @@
 
 namespace envsift {
 
-// Each entry is defined in its test's own file.
+// Each entry is defined in its own file beside its test (src/detect/NAME_entry.cpp).
 TestEntry robust_z_entry();
 TestEntry reverse_jackknife_entry();
 TestEntry mahalanobis_entry();
@@ -42,6 +42,11 @@ std::vector<std::string> default_test_names() {
   return names;
 }
 
+TestSettings::TestSettings() : tests(default_test_names()) {
+  for (const auto& e : test_registry())
+    if (e.own_defaults.has_value()) own.add(e.own_defaults);
+}
+
 namespace {
 
 std::string taxon_test_names() {
@@ -51,21 +56,17 @@ std::string taxon_test_names() {
   return names;
 }
 
-OptionSpec tests_option() {
+TestOption tests_option() {
   std::string help = "tests to run, comma-separated.";
   for (const auto& e : test_registry())
     if (e.make_detector) help += " " + e.name + ": " + e.help;
   help += " The defaults are what the evaluation supports (docs/evaluation.md, envsift evaluate).";
-  OptionSpec o{"tests", "LIST", help};
-  o.set = [](ScreenSettings& s, const std::string& text) { s.tests.tests = split_list(text); };
-  o.get = [](const ScreenSettings& s) {
-    std::string joined;
-    for (const auto& t : s.tests.tests) joined += (joined.empty() ? "" : ",") + t;
-    return joined;
-  };
-  o.check = [](const ScreenSettings& s) {
-    if (s.tests.tests.empty()) return "names no test; choose from " + taxon_test_names();
-    for (const auto& t : s.tests.tests) {
+  TestOption o{"tests", "LIST", help};
+  o.set = [](TestSettings& s, const std::string& text) { s.tests = split_list(text); };
+  o.get = [](const TestSettings& s) { return join_list(s.tests, ","); };
+  o.check = [](const TestSettings& s) {
+    if (s.tests.empty()) return "names no test; choose from " + taxon_test_names();
+    for (const auto& t : s.tests) {
       const TestEntry* e = find_test(t);
       if (!e || !e->make_detector) return "names an unknown test '" + t + "'; choose from " + taxon_test_names();
     }
@@ -76,45 +77,45 @@ OptionSpec tests_option() {
 
 }  // namespace
 
-const std::vector<OptionSpec>& test_options() {
-  static const std::vector<OptionSpec> options = [] {
-    std::vector<OptionSpec> v{tests_option()};
+const std::vector<TestOption>& test_options() {
+  using T = TestSettings;
+  static const std::vector<TestOption> options = [] {
+    std::vector<TestOption> v{tests_option()};
     v.push_back(choice_option(
         "scale",
         "how robust z and the Mahalanobis distances measure distance on a layer. mad: one spread, 1.4826 × MAD, for both "
         "sides of the taxon's median; skew: each side its own spread, from the adjusted boxplot's fence on that side "
         "(Hubert & Vandervieren 2008), so a long tail (rainfall, slope, distances) is not flagged. mad is the default "
         "because it measured better with envsift evaluate (docs/evaluation.md); try both on your rasters",
-        [](ScreenSettings& s) -> std::string& { return s.tests.scale; }, {"mad", "skew"}));
+        &T::scale, Choices<Scale>{{"mad", Scale::mad}, {"skew", Scale::skew}}));
     v.push_back(real_option("common-share", "S",
                             "the one-layer tests never flag a value that at least this share of the taxon's values hold "
                             "exactly (a layer of few classes has common classes, not outliers); 0 turns this off",
-                            [](ScreenSettings& s) -> double& { return s.tests.common_share; }, between(0, 1)));
+                            &T::common_share, between(0, 1)));
     v.push_back(count_option("min-records", "N",
                              "a taxon needs N values (distinct cells) on a layer for the one-layer tests, and N complete "
                              "rows for the Mahalanobis tests, which also use at most one dimension per 3 rows; smaller "
                              "taxa get too_few_records:TEST",
-                             [](ScreenSettings& s) -> std::size_t& { return s.tests.min_records; }, at_least(3)));
+                             &T::min_records, at_least(3)));
     v.push_back(switch_option("all-records",
                               "estimate each taxon's statistics from every record, not from one record per distinct "
                               "cell (the default, so that fifty records in one cell neither zero the spread nor hide an "
                               "outlier)",
-                              [](ScreenSettings& s) -> bool& { return s.tests.all_records; }));
-    v.push_back(seed_option("seed", "N", "seed of the randomised tests; the same seed gives the same output",
-                            [](ScreenSettings& s) -> unsigned long long& { return s.tests.seed; }));
+                              &T::all_records));
+    v.push_back(count_option("seed", "N", "seed of the randomised tests; the same seed gives the same output", &T::seed));
     v.push_back(choice_option(
         "combine",
         "how the tests' severities (1 at each test's cutoff) make a record's score, which ranks it. max: the most "
         "severe test, so a score above 1 means a test flagged it; mean: the mean over the tests that judged it, so a "
         "record several tests find far from its taxon ranks above one that a single test finds far. Flags are the "
         "same either way",
-        [](ScreenSettings& s) -> std::string& { return s.tests.combine; }, {"max", "mean"}));
+        &T::combine, Choices<Combine>{{"max", Combine::max}, {"mean", Combine::mean}}));
     v.push_back(choice_option(
         "populations",
         "split: a taxon whose records form two separate groups in the layers' space (k-means with a density valley "
         "between the groups; each at least 20 % of the taxon) is judged as two populations, each on its own; one: "
         "every taxon is judged as one",
-        [](ScreenSettings& s) -> std::string& { return s.tests.populations; }, {"split", "one"}));
+        &T::populations, Choices<PopulationMode>{{"split", PopulationMode::split}, {"one", PopulationMode::one}}));
     v.push_back(real_option(
         "max-flagged-share", "S",
         "when one test flags more than this share of the distinct places (cells) of a taxon it judged, and at least 5 "
@@ -122,7 +123,7 @@ const std::vector<OptionSpec>& test_options() {
         "the taxon (its records keep their score and rank), they get looks_multimodal:TEST and a warning names the "
         "taxon. Places, not records, are counted, so a batch of records at a few wrong places stays flagged. 1 turns "
         "this off",
-        [](ScreenSettings& s) -> double& { return s.tests.max_flagged_share; }, {0.0, 1.0, true, false}));
+        &T::max_flagged_share, Bounds{0.0, 1.0, true, false}));
     for (const auto& e : test_registry()) v.insert(v.end(), e.options.begin(), e.options.end());
     return v;
   }();
@@ -142,23 +143,35 @@ std::vector<std::vector<std::string>> ActiveTests::extra_columns() const {
   return extras;
 }
 
+std::optional<LandscapeOptions> ActiveTests::landscape(const TestSettings& settings) const {
+  for (const auto* e : entries)
+    if (e->landscape) return e->landscape(settings);
+  return std::nullopt;
+}
+
+std::string elevation_layer(const TestSettings& settings) {
+  for (const auto& e : test_registry())
+    if (e.elevation_layer && !e.elevation_layer(settings).empty()) return e.elevation_layer(settings);
+  return "";
+}
+
 namespace {
 
-bool named(const ScreenSettings& s, const TestEntry& e) {
-  return std::find(s.tests.tests.begin(), s.tests.tests.end(), e.name) != s.tests.tests.end();
+bool named(const TestSettings& s, const TestEntry& e) {
+  return std::find(s.tests.begin(), s.tests.end(), e.name) != s.tests.end();
 }
 
 // A test that needs layers, with --value-columns: left out when the defaults are in use, refused
 // when asked for by name.
-bool inapplicable(const ScreenSettings& s, const TestEntry& e) { return e.needs_layers && !s.input.value_columns.empty(); }
+bool inapplicable(const TestContext& c, const TestEntry& e) { return e.needs_layers && c.values_from_columns; }
 
 }  // namespace
 
-ActiveTests activate_tests(const ScreenSettings& s) {
-  validate_tests(s);
+ActiveTests activate_tests(const TestSettings& s, const TestContext& c) {
+  validate_tests(s, c);
   ActiveTests active;
   for (const auto& e : test_registry())
-    if (e.make_detector && named(s, e) && !inapplicable(s, e)) {
+    if (e.make_detector && named(s, e) && !inapplicable(c, e)) {
       active.detectors.push_back(e.make_detector(s));
       active.entries.push_back(&e);
     }
@@ -170,14 +183,14 @@ ActiveTests activate_tests(const ScreenSettings& s) {
   return active;
 }
 
-void validate_tests(const ScreenSettings& s) {
+void validate_tests(const TestSettings& s, const TestContext& c) {
   check_options(test_options(), s);
-  if (s.tests.tests != default_test_names())
+  if (s.tests != default_test_names())
     for (const auto& e : test_registry())
-      if (named(s, e) && inapplicable(s, e))
+      if (named(s, e) && inapplicable(c, e))
         throw UsageError("--tests " + e.name + " needs layers (--layers), not --value-columns; leave it out of --tests");
   for (const auto& e : test_registry())
-    if (e.validate) e.validate(s);
+    if (e.validate) e.validate(s, c);
 }
 
 }  // namespace envsift

@@ -8,7 +8,7 @@
 #include <algorithm>
 #include <set>
 
-#include "envsift/sample/circular_layers.hpp"
+#include "envsift/table/circular_layers.hpp"
 #include "envsift/errors.hpp"
 #include "envsift/evaluate/evaluation_slices.hpp"
 #include "envsift/evaluate/injected_errors.hpp"
@@ -132,7 +132,7 @@ Evaluation run_evaluation(const EvaluateOptions& o) {
   ScreenSettings screen = o.screen;
   screen.input.points = scratch.path + "/virtual.csv";
   screen.outputs.out = o.keep_screened;  // empty: only the tally below
-  screen.outputs.order = "input";
+  screen.outputs.order = RowOrder::input;
   {
     std::ofstream points(screen.input.points, std::ios::binary);
     points << "occurrenceID,scientificName,decimalLongitude,decimalLatitude,virtual_error,virtual_suitability\n";

@@ -12,7 +12,7 @@
 #include <ogr_spatialref.h>
 
 #include "envsift/detect/skew_scale.hpp"
-#include "envsift/crs_transform.hpp"
+#include "envsift/geo/crs_transform.hpp"
 #include "envsift/errors.hpp"
 #include "envsift/seeded_random.hpp"
 #include "envsift/sample/raster_stack.hpp"

@@ -50,9 +50,9 @@ PointTable read_delimited(std::istream& in, const std::string& path, const Reade
   }
   PointTable table;
   table.source = path;
-  Quoting quoting = o.quoting == "literal" || (o.quoting == "auto" && delimiter == '\t') ? Quoting::literal
-                                                                                          : Quoting::rfc4180;
-  if (archive && o.quoting == "auto") quoting = archive->quoted ? Quoting::rfc4180 : Quoting::literal;
+  // no --quoting: tab-separated text literally, other delimiters (and archives that say so) by RFC 4180
+  Quoting quoting = o.quoting ? *o.quoting : delimiter == '\t' ? Quoting::literal : Quoting::rfc4180;
+  if (archive && !o.quoting) quoting = archive->quoted ? Quoting::rfc4180 : Quoting::literal;
   CsvReader reader(in, delimiter, path, quoting);
   std::size_t line = 0;
   if (archive) {

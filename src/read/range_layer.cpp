@@ -10,10 +10,10 @@
 #include <ogrsf_frmts.h>
 
 #include "../gdal_init.hpp"
-#include "envsift/crs_transform.hpp"
+#include "envsift/geo/crs_transform.hpp"
 #include "envsift/errors.hpp"
 #include "envsift/read/taxon_names.hpp"
-#include "envsift/sample/great_circle.hpp"
+#include "envsift/geo/great_circle.hpp"
 
 namespace envsift {
 namespace {

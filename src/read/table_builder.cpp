@@ -3,7 +3,7 @@
 #include <algorithm>
 #include <cctype>
 
-#include "envsift/crs_transform.hpp"
+#include "envsift/geo/crs_transform.hpp"
 #include "envsift/errors.hpp"
 
 namespace envsift::detail {

@@ -4,7 +4,7 @@
 #include <gdal_priv.h>
 #include <ogrsf_frmts.h>
 
-#include "envsift/crs_transform.hpp"
+#include "envsift/geo/crs_transform.hpp"
 #include "envsift/errors.hpp"
 #include "envsift/read/coordinates.hpp"
 #include "envsift/reason_codes.hpp"

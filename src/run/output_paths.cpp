@@ -8,6 +8,7 @@
 #include <gdal_priv.h>
 
 #include "../gdal_init.hpp"
+#include "envsift/detect/range_check.hpp"
 #include "envsift/errors.hpp"
 #include "envsift/read/darwin_core_archive.hpp"
 #include "envsift/read/point_reader.hpp"
@@ -71,14 +72,15 @@ void refuse_unsafe_outputs(const ScreenSettings& s, bool sample) {
   ensure_gdal_registered();
   std::vector<NamedPath> outputs, inputs;
   for (const auto& e : output_registry()) {
-    const std::string path = e.option.get(s);
+    const std::string path = e.option.get(s.outputs);
     if (!path.empty() && (e.in_sample || !sample)) outputs.push_back({"--" + e.option.name, path});
   }
   add_points_files(s.input.points, inputs);
   if (s.input.value_columns.empty())
     for (const auto& spec : expand_layer_arguments(s.input.layers)) add_dataset_files("--layers", spec.path, GDAL_OF_RASTER, inputs);
   if (!sample && !s.review.decisions.empty()) inputs.push_back({"--decisions", s.review.decisions});
-  if (!sample && !s.ranges.path.empty()) add_dataset_files("--ranges", s.ranges.path, GDAL_OF_VECTOR, inputs);
+  const std::string& ranges = s.tests.own.get<RangeSettings>().path;
+  if (!sample && !ranges.empty()) add_dataset_files("--ranges", ranges, GDAL_OF_VECTOR, inputs);
   refuse_unsafe_outputs(outputs, inputs);
 }
 

@@ -1,13 +1,13 @@
-#include "envsift/sample/circular_layers.hpp"
+#include "envsift/table/circular_layers.hpp"
 #include "envsift/reason_codes.hpp"
-#include "envsift/sample/value_columns.hpp"
+#include "envsift/table/value_columns.hpp"
 #include "envsift/settings/memory_estimate.hpp"
 #include "envsift/run_summary.hpp"
 #include <algorithm>
 
 #include <omp.h>
 #include "envsift/run/run.hpp"
-#include "envsift/sample/sample_records.hpp"
+#include "envsift/table/sample_records.hpp"
 #include "envsift/stable_hash.hpp"
 #include "envsift/write/record_columns.hpp"
 #include "steps.hpp"
@@ -34,9 +34,18 @@ RecordTable read_and_sample(const ScreenSettings& s, const ActiveTests* tests) {
   if (layer_names.empty())
     for (const auto& spec : expand_layer_arguments(s.input.layers)) layer_names.push_back(spec.name);
   const auto circular = circular_layers(layer_names, s.input.circular);  // before the long part: a typo stops here
-  RecordTable t = s.input.value_columns.empty()
-                      ? sample_records(s, added, [&s](const PointTable& points, std::size_t i) { return owned_by_this_shard(s, points, i); })
-                      : read_value_columns(s, added);
+  const bool sampling = s.input.value_columns.empty();
+  ReaderOptions reading = s.input.reader;
+  if (sampling) reading.progress = s.progress;
+  else reading.coordinates_optional = true;  // the values are in the file: coordinates are not needed
+  const Stopwatch clock;
+  PointTable points = read_points(s.input.points, reading);  // 1. read the points
+  const double read_seconds = clock.seconds();
+  RecordTable t = sampling  // 2. sample the layers
+                      ? sample_records(std::move(points), s.input, s.sampling, s.progress, added,
+                                       [&s](const PointTable& p, std::size_t i) { return owned_by_this_shard(s, p, i); })
+                      : read_value_columns(std::move(points), s.input, added);
+  if (sampling) t.seconds.insert(t.seconds.begin(), {"read points", read_seconds});
   add_circular_components(t, circular);
   {
     RunShape shape{t.size(), t.points.taxa.size() - 1, static_cast<std::size_t>(t.values.cols()), 0, t.has_discs, 0};
@@ -47,7 +56,7 @@ RecordTable read_and_sample(const ScreenSettings& s, const ActiveTests* tests) {
     shape.threads = static_cast<std::size_t>(omp_get_max_threads());
     shape.report = !s.outputs.report.empty(), shape.gis = !s.outputs.gis.empty();
     if (tests && t.stack && std::any_of(tests->detectors.begin(), tests->detectors.end(), [](const auto& d) { return d->uses_landscape(); }))
-      shape.landscape_cells = s.tests.landscape_cells;
+      if (const auto landscape = tests->landscape(s.tests)) shape.landscape_cells = landscape->cells;
     const MemoryEstimate e = estimate_memory(shape, s.sampling);
     t.memory = e.words() + "; --memory-limit " + with_thousands(s.sampling.memory_limit_mb) + " MB";
     if (e.peak() > (s.sampling.memory_limit_mb << 20))

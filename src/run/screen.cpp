@@ -22,13 +22,18 @@ std::vector<RecordSink*> pointers(const std::vector<std::unique_ptr<RecordSink>>
   return all;
 }
 
+RunInputs inputs_of(const ScreenSettings& s) {
+  return {s.input.points, s.input.value_columns, s.input.reader.columns.id, s.input.single_taxon, s.review.decisions,
+          s.command_line};
+}
+
 }  // namespace
 
 RunSummary run_sample(const ScreenSettings& s) {
   validate_for_sample(s);
   refuse_unsafe_outputs(s, true);
   apply_process_settings(s.sampling);
-  const auto outputs = open_outputs(s, true);
+  const auto outputs = open_outputs(s.outputs, true);
   const Stopwatch started;
   RunSummary summary;
   summary.screened = false;
@@ -37,9 +42,10 @@ RunSummary run_sample(const ScreenSettings& s) {
   summary.seconds = t.seconds;
   summary.memory = t.memory;
   summary.warnings = t.warnings;
-  const RunContext run{s, t, nullptr, record_header(t, nullptr, s.outputs.column_prefix), settings_as_written(sample_options(), s)};
+  const RunContext run{s.outputs, t, nullptr, nullptr, inputs_of(s), nullptr,
+                       record_header(t, nullptr, s.outputs.column_prefix), settings_as_written(sample_options(), s)};
   for (RecordSink* out : pointers(outputs)) out->begin(run);
-  run::write_outputs(run, nullptr, pointers(outputs), summary);
+  run::write_outputs(run, nullptr, pointers(outputs), summary, s.progress);
   summary.seconds.emplace_back("total", started.seconds());
   return summary;
 }
@@ -51,8 +57,8 @@ RunSummary run_screen(const ScreenSettings& settings, const std::vector<RecordSi
   validate(s);
   refuse_unsafe_outputs(s, false);
   apply_process_settings(s.sampling);
-  const ActiveTests tests = activate_tests(s);
-  const auto owned = open_outputs(s, false);
+  const ActiveTests tests = activate_tests(s.tests, test_context(s.input));
+  const auto owned = open_outputs(s.outputs, false);
   const auto outputs = pointers(owned, extra_outputs);
   if (outputs.empty()) throw UsageError("--out is required: give the CSV file to write");
   Stopwatch clock;
@@ -66,7 +72,14 @@ RunSummary run_screen(const ScreenSettings& settings, const std::vector<RecordSi
   clock.lap(summary.seconds, "sampling, total");
   const run::Membership membership = run::group_records(t, s);  // 3. group by taxon
   clock.lap(summary.seconds, "group");
-  const RunContext run{s, t, &tests, record_header(t, &tests, s.outputs.column_prefix, !s.review.decisions.empty()), settings_as_written(all_screen_options(), s)};
+  const RunContext run{s.outputs,
+                       t,
+                       &tests,
+                       &s.tests,
+                       inputs_of(s),
+                       s.review.decisions.empty() ? nullptr : &membership.decision_file,
+                       record_header(t, &tests, s.outputs.column_prefix, !s.review.decisions.empty()),
+                       settings_as_written(all_screen_options(), s)};
   for (RecordSink* out : outputs) out->begin(run);
   const double cpu_before = process_cpu_seconds();
   const run::Judgement judgement = run::judge_records(t, tests, membership, s, outputs);  // 4-5. tests, scores
@@ -76,7 +89,7 @@ RunSummary run_screen(const ScreenSettings& settings, const std::vector<RecordSi
 
   summary.warnings = t.warnings;
   summary.warnings.insert(summary.warnings.end(), judgement.warnings.begin(), judgement.warnings.end());
-  run::write_outputs(run, &judgement, outputs, summary);  // 6. rank, write
+  run::write_outputs(run, &judgement, outputs, summary, s.progress);  // 6. rank, write
   return summary;
 }
 

@@ -7,9 +7,10 @@
 #include <string>
 #include <vector>
 
-#include "envsift/record_table.hpp"
+#include "envsift/table/record_table.hpp"
 #include "envsift/run_summary.hpp"
 #include "envsift/score/verdict_store.hpp"
+#include "envsift/settings/settings.hpp"
 #include "envsift/write/record_sink.hpp"
 
 namespace envsift::run {
@@ -49,6 +50,6 @@ Judgement judge_records(RecordTable& table, const ActiveTests& tests, const Memb
 // Step 6 (the outputs have begun with `run` before judging, to receive each judged taxon):
 // every record, in the chosen order, to every output; then all finish, then all commit.
 void write_outputs(const RunContext& run, const Judgement* judgement, const std::vector<RecordSink*>& outputs,
-                   RunSummary& summary);
+                   RunSummary& summary, Progress* progress);
 
 }  // namespace envsift::run

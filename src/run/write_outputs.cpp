@@ -26,21 +26,22 @@ struct PendingRecord {
 
 class BatchWriter {
  public:
-  BatchWriter(const RunContext& run, const Judgement* judgement, const std::vector<RecordSink*>& outputs, RunSummary& summary)
+  BatchWriter(const RunContext& run, const Judgement* judgement, const std::vector<RecordSink*>& outputs, RunSummary& summary,
+              Progress* progress)
       : t_(run.table), judgement_(judgement), outputs_(outputs), summary_(summary), seconds_(outputs.size(), 0.0),
-        progress_(run.settings.progress) {
+        progress_(progress) {
     const std::size_t n = t_.size();
     ranks_.assign(n, 0);
     rows_.resize(n);
     std::iota(rows_.begin(), rows_.end(), 0);
     if (judgement) {
       ranks_ = rank_by_score(judgement->scores, judgement->tiers);
-      if (run.settings.outputs.order == "rank")
+      if (run.outputs.order == RowOrder::rank)
         std::stable_sort(rows_.begin(), rows_.end(), [&](std::size_t a, std::size_t b) {
           return (ranks_[a] ? ranks_[a] : n + 1) < (ranks_[b] ? ranks_[b] : n + 1);
         });
     }
-    with_decisions_ = judgement && !run.settings.review.decisions.empty();
+    with_decisions_ = judgement && !run.inputs.decisions.empty();
     rows_wanted_ = std::any_of(outputs.begin(), outputs.end(), [](RecordSink* o) { return o->wants_row(); });
     lines_wanted_ = std::any_of(outputs.begin(), outputs.end(), [](RecordSink* o) { return o->wants_csv_line(); });
   }
@@ -162,14 +163,14 @@ void BatchWriter::finish_and_commit() {
 }  // namespace
 
 void write_outputs(const RunContext& run, const Judgement* judgement, const std::vector<RecordSink*>& outputs,
-                   RunSummary& summary) {
+                   RunSummary& summary, Progress* progress) {
   const Stopwatch started;
-  BatchWriter writer(run, judgement, outputs, summary);
+  BatchWriter writer(run, judgement, outputs, summary, progress);
   writer.write_records();
   writer.finish_and_commit();
   for (std::size_t k = 0; k < outputs.size(); ++k) summary.seconds.emplace_back("write " + outputs[k]->name(), writer.seconds()[k]);
   summary.seconds.emplace_back("write, total", started.seconds());
-  if (run.settings.progress) run.settings.progress->finish();
+  if (progress) progress->finish();
 }
 
 }  // namespace envsift::run

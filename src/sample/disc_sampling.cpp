@@ -7,7 +7,7 @@
 #include <map>
 #include <numeric>
 
-#include "envsift/sample/great_circle.hpp"
+#include "envsift/geo/great_circle.hpp"
 #include "envsift/sample/raster_stack.hpp"
 #include "layer_access.hpp"
 

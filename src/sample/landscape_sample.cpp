@@ -6,10 +6,10 @@
 
 #include <ogr_spatialref.h>
 
-#include "envsift/crs_transform.hpp"
+#include "envsift/geo/crs_transform.hpp"
 #include "envsift/errors.hpp"
 #include "envsift/median.hpp"
-#include "envsift/sample/great_circle.hpp"
+#include "envsift/geo/great_circle.hpp"
 #include "envsift/seeded_random.hpp"
 #include "envsift/stable_hash.hpp"
 
@@ -94,7 +94,7 @@ void LandscapeSampler::draw_extent() {
 }
 
 std::vector<LandscapeValues> LandscapeSampler::sample(const std::vector<TaxonPlaces>& taxa) {
-  if (options_.area == "extent") {
+  if (options_.area == LandscapeArea::extent) {
     if (!extent_) draw_extent();
     return std::vector<LandscapeValues>(taxa.size(), *extent_);
   }

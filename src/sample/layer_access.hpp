@@ -8,7 +8,7 @@
 #include <gdal_priv.h>
 #include <ogr_spatialref.h>
 
-#include "envsift/crs_transform.hpp"
+#include "envsift/geo/crs_transform.hpp"
 #include "envsift/sample/block_cache.hpp"
 #include "envsift/sample/raster_stack.hpp"
 

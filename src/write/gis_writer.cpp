@@ -7,7 +7,7 @@
 #include <ogrsf_frmts.h>
 
 #include "envsift/errors.hpp"
-#include "envsift/sample/great_circle.hpp"
+#include "envsift/geo/great_circle.hpp"
 #include "envsift/write/atomic_file.hpp"
 #include "gdal_init.hpp"
 

@@ -11,6 +11,7 @@
 #include "envsift/errors.hpp"
 #include <omp.h>
 
+#include "envsift/detect/range_check.hpp"
 #include "envsift/write/record_sink.hpp"
 
 namespace envsift {
@@ -94,16 +95,17 @@ std::string manifest_json(const RunManifest& m) {
 }
 
 RunManifest make_manifest(const RunContext& run, const RunSummary& summary) {
-  const ScreenSettings& s = run.settings;
   RunManifest m;
-  m.command_line = s.command_line;
+  m.command_line = run.inputs.command_line;
   m.options = run.options;
-  m.points = s.input.points;
+  m.points = run.inputs.points;
   if (!run.table.layers_are_columns) m.layers = run.table.layers;
-  m.seed = run.screened() ? s.tests.seed : 0;
+  m.seed = run.screened() ? run.test_settings->seed : 0;
   m.threads = omp_get_max_threads();
   m.seconds = summary.seconds;
-  if (run.screened()) m.decisions = s.review.decisions, m.decided = summary.decided, m.ranges = s.ranges.path;
+  if (run.screened())
+    m.decisions = run.inputs.decisions, m.decided = summary.decided,
+    m.ranges = run.test_settings->own.get<RangeSettings>().path;
   return m;
 }
 

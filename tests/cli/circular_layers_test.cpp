@@ -6,7 +6,7 @@
 
 #include <gtest/gtest.h>
 
-#include "envsift/sample/circular_layers.hpp"
+#include "envsift/table/circular_layers.hpp"
 #include "../support.hpp"
 
 namespace envsift {

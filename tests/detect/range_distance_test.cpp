@@ -13,9 +13,9 @@
 #include <gtest/gtest.h>
 
 #include "../support.hpp"
-#include "envsift/detect/range_distance.hpp"
+#include "envsift/geo/range_distance.hpp"
 #include "envsift/read/range_layer.hpp"
-#include "envsift/sample/great_circle.hpp"
+#include "envsift/geo/great_circle.hpp"
 
 namespace envsift {
 namespace {

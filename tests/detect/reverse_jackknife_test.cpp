@@ -102,14 +102,14 @@ namespace {
 // As run (the registry's detector): at least 20 values, whatever --min-records below that
 // (reverse_jackknife.cpp says why); 19 evenly spread values are not judged, 20 are.
 TEST(ReverseJackknife, AsRunItNeedsTwentyValues) {
-  ScreenSettings s;
-  s.tests.min_records = 10;
+  TestSettings s;
+  s.min_records = 10;
   const auto detector = find_test("reverse_jackknife")->make_detector(s);
   const std::vector<std::string> names{"x"};
   const auto nineteen = column(range(1, 19)), twenty = column(range(1, 20));
   EXPECT_FALSE(detector->judge({nineteen, nineteen, names})[0].tested);
   EXPECT_TRUE(detector->judge({twenty, twenty, names})[0].tested);
-  s.tests.min_records = 30;  // a higher minimum is kept
+  s.min_records = 30;  // a higher minimum is kept
   EXPECT_FALSE(find_test("reverse_jackknife")->make_detector(s)->judge({twenty, twenty, names})[0].tested);
 }
 

@@ -7,6 +7,7 @@
 #include <gtest/gtest.h>
 
 #include "../support.hpp"
+#include "envsift/detect/reported_elevation.hpp"
 #include "envsift/detect/test_registry.hpp"
 #include "envsift/run/validate.hpp"
 #include "envsift/write/output_registry.hpp"
@@ -15,7 +16,7 @@ namespace envsift {
 namespace {
 
 TEST(TestRegistry, EveryEntryIsNamedOnceDescribesItselfAndBuilds) {
-  const ScreenSettings defaults;
+  const TestSettings defaults;
   std::set<std::string> names;
   for (const auto& e : test_registry()) {
     SCOPED_TRACE(e.name);
@@ -66,10 +67,10 @@ TEST(TestRegistry, EveryOptionRoundTripsItsDefaultAsWritten) {
 }
 
 TEST(TestRegistry, ActivatingTheDefaultsGivesTheirDetectorsInRegistryOrder) {
-  ScreenSettings s;
-  s.tests.tests = {"mahalanobis", "robust_z"};
-  s.elevation.dem_layer = "dem";
-  const ActiveTests active = activate_tests(s);
+  TestSettings s;
+  s.tests = {"mahalanobis", "robust_z"};
+  s.own.get<ElevationSettings>().dem_layer = "dem";
+  const ActiveTests active = activate_tests(s, {});
   ASSERT_EQ(active.detectors.size(), 2u);
   ASSERT_EQ(active.checks.size(), 1u);
   EXPECT_EQ(active.names(), (std::vector<std::string>{"robust_z", "mahalanobis", "elevation_mismatch"}));
@@ -80,7 +81,7 @@ TEST(OutputRegistry, EveryOutputOpensFinishesAndCommitsOnAnEmptyRun) {
   const auto dir = testing::temp_dir("empty-run-outputs");
   ScreenSettings s;
   s.input.points = testing::source_path("demo-points/occurrences.csv");  // the manifest hashes it
-  const ActiveTests tests = activate_tests(s);
+  const ActiveTests tests = activate_tests(s.tests, {});
   RecordTable table;
   table.codes.resize(0);
   table.points.columns = {s.input.reader.columns.id};  // a file's header, no records (the template lists by ID)
@@ -90,9 +91,10 @@ TEST(OutputRegistry, EveryOutputOpensFinishesAndCommitsOnAnEmptyRun) {
     EXPECT_TRUE(names.insert(e.name).second);
     const std::string extension = e.name == "gis" ? ".gpkg" : e.name == "report" ? ".html" : e.name == "manifest" ? ".json" : ".csv";
     const std::string path = dir + "/" + e.name + extension;
-    auto sink = e.make(path, s);
+    auto sink = e.make(path);
     ASSERT_TRUE(sink);
-    const RunContext run{s, table, &tests, {"status", "rank", "score", "flags", "reasons"}, {}};
+    const RunContext run{s.outputs, table, &tests, &s.tests, {s.input.points, {}, s.input.reader.columns.id}, nullptr,
+                         {"status", "rank", "score", "flags", "reasons"}, {}};
     sink->begin(run);
     RunSummary summary;
     sink->finish(summary);
@@ -111,7 +113,7 @@ TEST(OutputRegistry, AnOutputNotCommittedLeavesNothing) {
   ScreenSettings s;
   for (const auto& e : output_registry()) {
     if (e.name == "gis") continue;  // GDAL creates its file at begin(), covered by the CLI's interrupt test
-    { auto sink = e.make(dir + "/" + e.name + ".out", s); }
+    { auto sink = e.make(dir + "/" + e.name + ".out"); }
   }
   EXPECT_TRUE(std::filesystem::is_empty(dir));
 }

@@ -1,6 +1,6 @@
 // Great-circle distances against PROJ's geod (Debian proj-bin) on the same sphere
 // (`geod +a=6371008.8 +es=0 -I`), and a worked haversine example.
-#include "envsift/sample/great_circle.hpp"
+#include "envsift/geo/great_circle.hpp"
 
 #include <array>
 #include <cmath>

@@ -5,6 +5,9 @@
 #include "../support.hpp"
 #include "envsift/errors.hpp"
 #include "envsift/run/run.hpp"
+#include "envsift/detect/mahalanobis.hpp"
+#include "envsift/detect/reported_elevation.hpp"
+#include "envsift/detect/robust_z.hpp"
 #include "envsift/run/validate.hpp"
 
 namespace envsift {
@@ -49,16 +52,18 @@ TEST(Validation, EmbeddingAndCommandLineGetTheSameMessage) {
     void (*change)(ScreenSettings&);
   };
   const Case cases[] = {
-      {"--z-cutoff 0", [](ScreenSettings& s) { s.tests.z_cutoff = 0; }},
-      {"--method cubic", [](ScreenSettings& s) { s.sampling.method = "cubic"; }},
-      {"--chi2-quantile 1", [](ScreenSettings& s) { s.tests.chi2_quantile = 1; }},
+      {"--z-cutoff 0", [](ScreenSettings& s) { s.tests.own.get<RobustZSettings>().z_cutoff = 0; }},
+      {"--chi2-quantile 1", [](ScreenSettings& s) { s.tests.own.get<MahalanobisSettings>().chi2_quantile = 1; }},
       {"--min-records 2", [](ScreenSettings& s) { s.tests.min_records = 2; }},
       {"--tests robust_z,gap", [](ScreenSettings& s) { s.tests.tests = {"robust_z", "gap"}; }},
-      {"--scale log", [](ScreenSettings& s) { s.tests.scale = "log"; }},
-      {"--elevation-tolerance 0 --dem dem", [](ScreenSettings& s) { s.elevation.tolerance_m = 0, s.elevation.dem_layer = "dem"; }},
+      {"--elevation-tolerance 0 --dem dem",
+       [](ScreenSettings& s) {
+         auto& e = s.tests.own.get<ElevationSettings>();
+         e.tolerance_m = 0, e.dem_layer = "dem";
+       }},
       {"--threads 100000", [](ScreenSettings& s) { s.sampling.threads = 100000; }},  // crashed the OpenMP runtime
       {"--order rank --shard 0/2",
-       [](ScreenSettings& s) { s.outputs.order = "rank", s.outputs.shard_index = 0, s.outputs.shard_count = 2; }},
+       [](ScreenSettings& s) { s.outputs.order = RowOrder::rank, s.outputs.shard_index = 0, s.outputs.shard_count = 2; }},
   };
   for (const auto& c : cases) {
     SCOPED_TRACE(c.options);
@@ -70,11 +75,38 @@ TEST(Validation, EmbeddingAndCommandLineGetTheSameMessage) {
   }
   EXPECT_EQ(library_message([&] {
               ScreenSettings s = demo_settings(dir + "/library.csv");
-              s.tests.z_cutoff = 0;
+              s.tests.own.get<RobustZSettings>().z_cutoff = 0;
               return s;
             }()),
             "--z-cutoff must be above 0, not 0");
   EXPECT_FALSE(std::ifstream(dir + "/library.csv")) << "nothing is written by a refused run";
+}
+
+// A choice is typed (an enum in the settings), so a program cannot hold a word outside it; the
+// word is refused as it is read, with the command line's message, through the same declaration.
+TEST(Validation, AChoiceOutsideItsWordsIsRefusedAsItIsRead) {
+  const auto dir = temp_dir("validation-choices");
+  for (const auto& [option, word, expected] :
+       {std::tuple{"method", "cubic", "--method must be one of nearest|bilinear, not 'cubic'"},
+        std::tuple{"scale", "log", "--scale must be one of mad|skew, not 'log'"},
+        std::tuple{"order", "random", "--order must be one of input|rank, not 'random'"},
+        std::tuple{"mcd-start", "fast", "--mcd-start must be one of deterministic|random, not 'fast'"}}) {
+    SCOPED_TRACE(option);
+    ScreenSettings s;
+    const auto options = all_screen_options();
+    const auto o = std::find_if(options.begin(), options.end(), [&](const OptionSpec& d) { return d.name == option; });
+    ASSERT_NE(o, options.end());
+    std::string library = "(no error)";
+    try {
+      o->set(s, word);
+    } catch (const UsageError& e) {
+      library = e.what();
+    }
+    EXPECT_EQ(library, expected);
+    EXPECT_EQ(cli_message(dir + "/cli.csv", std::string("--") + option + " " + word), expected);
+    o->set(s, o->get(ScreenSettings{}));  // the default as written reads back
+    EXPECT_EQ(o->get(s), o->get(ScreenSettings{}));
+  }
 }
 
 TEST(Validation, DefaultsAreValidAndShownAsWritten) {

@@ -4,21 +4,16 @@
 #include <cmath>
 #include <algorithm>
 #include <cstdint>
+#include <optional>
 #include <utility>
 #include <string>
 #include <vector>
 
 #include <Eigen/Core>
 
-namespace envsift {
+#include "envsift/sample/landscape_values.hpp"
 
-// The environments available around a taxon (its landscape test's background): cells drawn from
-// its accessible area, cells × layers (the same layers as the taxon's values), NaN = missing;
-// `area` says in words where they were drawn (e.g. "within 35 km of its records").
-struct LandscapeValues {
-  Eigen::MatrixXd values;
-  std::string area;
-};
+namespace envsift {
 
 // The values of one taxon. `reference` holds the rows the taxon's statistics are estimated from
 // (one row per distinct raster cell by default); `records` holds the rows to judge, one per
@@ -65,6 +60,13 @@ class Detector {
   virtual std::vector<Finding> judge(const TaxonValues& taxon) const = 0;
   // True for a test that compares the taxon with its landscape (TaxonValues::landscape).
   virtual bool uses_landscape() const { return false; }
+  // A one-layer test: the range it accepts on a layer, from that layer's reference values (the
+  // report draws it), and whether that range's bounds are themselves flagged; nothing for a test
+  // of all layers together.
+  virtual std::optional<std::pair<double, double>> accepted_range(std::vector<double>, const std::string&) const {
+    return std::nullopt;
+  }
+  virtual bool flags_its_bounds() const { return false; }
 };
 
 // Findings for a taxon no record of which can be judged.

@@ -4,8 +4,20 @@
 #include <cstddef>
 
 #include "envsift/detect/detector.hpp"
+#include "envsift/sample/landscape_sample.hpp"
 
 namespace envsift {
+
+// Its own settings in a run (TestSettings::own): flag when the record's environment is `ratio`
+// times more common in the taxon's landscape than among its records; where the landscape is
+// drawn (landscape_sample.hpp).
+struct LandscapeSettings {
+  double ratio = 5;
+  LandscapeArea area = LandscapeArea::buffer;
+  double spread = 1;         // buffer radius = this × the taxon's spread …
+  double min_km = 20;        // … at least this
+  std::size_t cells = 300;   // cells drawn per taxon
+};
 
 struct LandscapeTestOptions {
   double ratio_cutoff = 5;        // flag when availability / use exceeds this

@@ -2,6 +2,7 @@
 // `Mahalanobis` uses the classical mean and covariance; `RobustMahalanobis` (robust_mahalanobis.hpp)
 // the reweighted FAST-MCD estimates. Both work in the same reduced space (see the .cpp).
 #pragma once
+#include "envsift/detect/test_settings.hpp"
 #include <cstddef>
 #include <cstdint>
 
@@ -59,8 +60,11 @@ struct ReducedSpace {
 // nothing is left.
 ReducedSpace reduce(const Eigen::MatrixXd& complete, const MahalanobisOptions& options);
 
-// The options both Mahalanobis tests take from a run's settings (their registry entries).
-struct ScreenSettings;
-MahalanobisOptions mahalanobis_options(const ScreenSettings& settings);
+// Both Mahalanobis tests' own settings in a run (TestSettings::own; --chi2-quantile), and the
+// options they take from a run's settings (mahalanobis_entry.cpp).
+struct MahalanobisSettings {
+  double chi2_quantile = 0.995;  // (docs/evaluation.md)
+};
+MahalanobisOptions mahalanobis_options(const TestSettings& settings);
 
 }  // namespace envsift

@@ -38,9 +38,8 @@ class PerLayerDetector : public Detector {
 
   // The accepted range on one layer from its reference values (as judge() prepares it); nothing
   // when the layer could not be judged (too few values, no spread).
-  std::optional<std::pair<double, double>> accepted_range(std::vector<double> reference, const std::string& layer) const;
-  // Whether the bounds of the accepted range are themselves flagged (the reverse jackknife's are).
-  virtual bool flags_its_bounds() const { return false; }
+  std::optional<std::pair<double, double>> accepted_range(std::vector<double> reference,
+                                                         const std::string& layer) const override;
 
  protected:
   // common_share: a value that at least this share of the reference values (and two of them)

@@ -12,9 +12,19 @@
 #include <vector>
 
 #include "envsift/detect/record_check.hpp"
-#include "envsift/settings/settings.hpp"
+#include "envsift/read/range_layer.hpp"
 
 namespace envsift {
+
+// Its own settings in a run (TestSettings::own; --ranges, --range-taxon-field, --range-filter,
+// --range-tolerance).
+struct RangeSettings {
+  std::string path;                           // the range layer; empty: no check
+  std::string taxon_field = "scientificName";
+  std::string filter;                         // OGR SQL WHERE clause on its features
+  double tolerance_km = 100;                  // flag records farther than this outside the range
+  RangeSource source() const { return {path, taxon_field, filter}; }
+};
 
 // The finding for a record `outside_m` metres beyond its taxon's range (0 inside), its uncertainty
 // disc's edge considered (`radius_m` = 0 without one). Statistic: kilometres outside beyond the

@@ -7,9 +7,17 @@
 
 #include "envsift/detect/detector.hpp"
 #include "envsift/detect/record_check.hpp"
-#include "envsift/read/point_reader.hpp"
 
 namespace envsift {
+
+// Its own settings in a run (TestSettings::own; --dem, --elevation-tolerance and the reported
+// elevation columns, Darwin Core terms by default).
+struct ElevationSettings {
+  std::string dem_layer;  // empty: no check
+  double tolerance_m = 100;
+  std::string min_column = "minimumElevationInMeters";
+  std::string max_column = "maximumElevationInMeters";
+};
 
 struct ReportedElevation {
   std::optional<double> min_m, max_m;  // minimumElevationInMeters / maximumElevationInMeters
@@ -37,16 +45,13 @@ DemRange dem_range(const RecordTable& table, std::size_t record, std::size_t dem
 class ReportedElevationCheck : public RecordCheck {
  public:
   static constexpr const char* kName = "elevation_mismatch";
-  ReportedElevationCheck(std::string dem_layer, double tolerance_m, ColumnNames columns)
-      : dem_layer_(std::move(dem_layer)), tolerance_m_(tolerance_m), columns_(std::move(columns)) {}
+  explicit ReportedElevationCheck(ElevationSettings settings) : settings_(std::move(settings)) {}
   std::string name() const override { return kName; }
   void prepare(RecordTable& table) override;
   Finding judge(std::size_t record) const override;
 
  private:
-  std::string dem_layer_;
-  double tolerance_m_;
-  ColumnNames columns_;
+  ElevationSettings settings_;
   std::vector<ReportedElevation> reported_;
   std::vector<DemRange> dem_;
 };

@@ -8,6 +8,11 @@
 
 namespace envsift {
 
+// Its own settings in a run (TestSettings::own; --mcd-start).
+struct RobustMahalanobisSettings {
+  McdEngine mcd_start = McdEngine::deterministic;
+};
+
 class RobustMahalanobis : public Mahalanobis {
  public:
   RobustMahalanobis(MahalanobisOptions options = {}, McdOptions mcd = {}) : Mahalanobis(options), mcd_(mcd) {}

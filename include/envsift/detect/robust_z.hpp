@@ -7,6 +7,11 @@
 
 namespace envsift {
 
+// Its own settings in a run (TestSettings::own; --z-cutoff).
+struct RobustZSettings {
+  double z_cutoff = 4.0;  // (docs/evaluation.md)
+};
+
 struct RobustZOptions {
   double cutoff = 3.0;          // |z| beyond this flags (Leys et al. 2013: 3 = very conservative)
   std::size_t min_records = 10;  // fewer reference values on a layer: that layer is not judged

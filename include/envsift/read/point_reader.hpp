@@ -2,9 +2,11 @@
 // vector source GDAL/OGR can open (GeoPackage, GeoJSON, Shapefile, ...).
 #pragma once
 #include <istream>
+#include <optional>
 #include <string>
 
-#include "envsift/occurrence.hpp"
+#include "envsift/read/csv_reader.hpp"
+#include "envsift/read/occurrence.hpp"
 #include "envsift/progress.hpp"
 
 namespace envsift {
@@ -16,16 +18,14 @@ struct ColumnNames {
   std::string longitude = "decimalLongitude";
   std::string latitude = "decimalLatitude";
   std::string uncertainty = "coordinateUncertaintyInMeters";
-  std::string min_elevation = "minimumElevationInMeters";
-  std::string max_elevation = "maximumElevationInMeters";
 };
 
 struct ReaderOptions {
   ColumnNames columns;
   char delimiter = 0;          // 0: '\t' for .tsv/.tab, else sniffed from the header line
-  // auto: tab-separated text is read literally (a quote is a character, as in data-portal exports
-  // and Darwin Core Archives), other delimiters with RFC 4180 quoting; or rfc4180 | literal.
-  std::string quoting = "auto";
+  // empty (auto): tab-separated text is read literally (a quote is a character, as in data-portal
+  // exports and Darwin Core Archives), other delimiters with RFC 4180 quoting.
+  std::optional<Quoting> quoting;
   // The CRS of the coordinate columns of a text file (EPSG:32631, WKT, a .prj file): x in the
   // longitude column, y in the latitude column, transformed to WGS 84. Empty: lon/lat degrees.
   std::string points_crs;

@@ -12,8 +12,8 @@
 #include <string>
 #include <vector>
 
-#include "envsift/crs_transform.hpp"
-#include "envsift/detect/range_distance.hpp"
+#include "envsift/geo/crs_transform.hpp"
+#include "envsift/geo/range_distance.hpp"
 
 class GDALDataset;
 class OGRLayer;

@@ -15,7 +15,7 @@
 #include <string>
 #include <vector>
 
-#include "envsift/occurrence.hpp"
+#include "envsift/read/occurrence.hpp"
 #include "envsift/review/decision.hpp"
 
 namespace envsift {

@@ -5,18 +5,19 @@
 #include <utility>
 #include <vector>
 
-#include "envsift/settings/option_spec.hpp"
+#include "envsift/detect/test_registry.hpp"
 #include "envsift/settings/settings.hpp"
 
 namespace envsift {
 
 std::vector<OptionSpec> all_screen_options();
-// The options `sample` takes: reading, sampling and the outputs it writes.
-std::vector<OptionSpec> sample_options();
 
 // Throws UsageError with the command line's message for the first setting that is out of its
 // bounds or choices, or that contradicts another.
 void validate(const ScreenSettings& settings);
+
+// What the tests need to know of the input to check their settings (--value-columns or layers).
+TestContext test_context(const InputSettings& input);
 
 // Every option's value as the command line writes it ("" = unset), for the run manifest.
 std::vector<std::pair<std::string, std::string>> settings_as_written(const std::vector<OptionSpec>& options,

@@ -18,13 +18,16 @@
 #include <string>
 #include <vector>
 
-#include "envsift/detect/detector.hpp"
+#include "envsift/sample/landscape_values.hpp"
 #include "envsift/sample/raster_stack.hpp"
 
 namespace envsift {
 
+// Where a taxon's landscape is drawn: around its records, or anywhere in the layers' extent.
+enum class LandscapeArea { buffer, extent };
+
 struct LandscapeOptions {
-  std::string area = "buffer";  // buffer | extent
+  LandscapeArea area = LandscapeArea::buffer;
   double spread_factor = 1.0;   // buffer: R = this × the taxon's spread …
   double min_radius_km = 20;    // … at least this (and 10 cells)
   std::size_t cells = 300;      // cells drawn per taxon (extent: in the shared draw)

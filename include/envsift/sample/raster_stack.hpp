@@ -14,11 +14,10 @@
 
 #include "envsift/progress.hpp"
 #include "envsift/sample/block_cache.hpp"
+#include "envsift/sample/sampling_settings.hpp"
 #include "envsift/value_table.hpp"
 
 namespace envsift {
-
-enum class Interpolation { nearest, bilinear };
 
 // One layer = one band of one raster file.
 struct LayerSpec {

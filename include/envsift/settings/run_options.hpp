@@ -1,36 +1,23 @@
-// The declared options of reading and sampling (settings/option_spec.hpp), grouped as the
-// commands use them; the tests' are in detect/test_registry.hpp, the outputs' in
-// write/output_registry.hpp, and run/validate.hpp gathers them all.
+// Every option of a run over the whole settings: each part's declared options (reading,
+// sampling, the registered tests' and outputs') lifted to ScreenSettings, grouped as the
+// commands use them; run/validate.hpp gathers a screen's.
 #pragma once
 #include <vector>
 
-#include "envsift/sample/raster_stack.hpp"
-#include "envsift/settings/option_spec.hpp"
 #include "envsift/settings/settings.hpp"
 
 namespace envsift {
 
-const std::vector<OptionSpec>& input_options();     // --points, --layers, column names, ...
-const std::vector<OptionSpec>& sampling_options();  // --method, discs, memory, threads, GDAL
-const std::vector<OptionSpec>& screen_options();    // --value-columns, --single-taxon, --order, --shard
+std::vector<OptionSpec> input_run_options();     // --points, --layers, column names, ...
+std::vector<OptionSpec> sampling_run_options();  // --method, discs, memory, threads, GDAL
+const std::vector<OptionSpec>& screen_options(); // --value-columns, --single-taxon, --shard, --order, --decisions
+std::vector<OptionSpec> test_run_options();      // --tests, the shared tests' options, each test's own
+std::vector<OptionSpec> output_run_options();    // each output's file and settings
+// The options `sample` takes: reading, sampling and the outputs it writes.
+std::vector<OptionSpec> sample_options();
+
 // Throws UsageError with the command line's message for the first setting `sample` uses that is
 // out of its bounds or choices (run/validate.hpp checks a screen's).
 void validate_for_sample(const ScreenSettings& settings);
-
-// What the settings mean for sampling, derived once: the interpolation, the block cache in
-// bytes (at most a quarter of the memory limit), the records sampled at a time, the memory for
-// the landscapes drawn at a time (an eighth of the limit) and for verdicts waiting to be written
-// before they go to disk (a sixteenth).
-struct SamplingPlan {
-  Interpolation method = Interpolation::nearest;
-  std::size_t cache_bytes = 0;
-  std::size_t chunk_records = 0;
-  std::size_t landscape_bytes = 0;
-  std::size_t verdict_bytes = 0;
-};
-SamplingPlan sampling_plan(const SamplingSettings& settings);
-
-// Applies the process-wide settings (thread count, GDAL configuration) before a run.
-void apply_process_settings(const SamplingSettings& settings);
 
 }  // namespace envsift

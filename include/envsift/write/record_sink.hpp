@@ -11,17 +11,33 @@
 
 #include "envsift/detect/judge_taxa.hpp"
 #include "envsift/detect/test_registry.hpp"
-#include "envsift/record_table.hpp"
+#include "envsift/review/decisions.hpp"
 #include "envsift/run_summary.hpp"
 #include "envsift/score/scoring.hpp"
-#include "envsift/settings/settings.hpp"
+#include "envsift/table/record_table.hpp"
+#include "envsift/write/output_settings.hpp"
 
 namespace envsift {
 
+// What the run read, in words, for the outputs that describe it.
+struct RunInputs {
+  std::string points;                      // --points
+  std::vector<std::string> value_columns;  // --value-columns
+  std::string id_column;                   // the points' ID column
+  bool single_taxon = false;               // --single-taxon
+  std::string decisions;                   // --decisions, "" = none
+  std::string command_line;                // how the run was invoked
+};
+
+// What an output is told of the run: its own settings, the facts the run computed (the table,
+// the tests and their settings, earlier decisions as read), never the run's whole settings.
 struct RunContext {
-  const ScreenSettings& settings;
+  const OutputSettings& outputs;
   const RecordTable& table;
-  const ActiveTests* tests;         // null for `sample`
+  const ActiveTests* tests;                // null for `sample`
+  const TestSettings* test_settings;       // null for `sample`
+  RunInputs inputs;
+  const DecisionFile* decisions = nullptr;  // --decisions as the run read it; null: none
   std::vector<std::string> header;  // the record table's columns as written
   std::vector<std::pair<std::string, std::string>> options;  // every option's value as written
   bool screened() const { return tests != nullptr; }

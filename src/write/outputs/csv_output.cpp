@@ -21,7 +21,7 @@ class CsvOutput : public RecordSink {
 
 }  // namespace
 
-std::unique_ptr<RecordSink> make_csv_output(const std::string& path, const ScreenSettings&) {
+std::unique_ptr<RecordSink> make_csv_output(const std::string& path) {
   return std::make_unique<CsvOutput>(path);
 }
 

@@ -21,17 +21,17 @@ class DecisionsTemplateOutput : public RecordSink {
   std::string name() const override { return "decisions-template"; }
 
   void begin(const RunContext& run) override {
-    const auto& s = run.settings;
+    const std::string& id_column = run.inputs.id_column;
     const auto& columns = run.table.points.columns;
-    const auto id = std::find(columns.begin(), columns.end(), s.input.reader.columns.id);
+    const auto id = std::find(columns.begin(), columns.end(), id_column);
     if (id == columns.end())
       throw UsageError("--decisions-template lists records by their ID, but the points have no '" +
-                       s.input.reader.columns.id + "' column; name the ID column with --id-column");
+                       id_column + "' column; name the ID column with --id-column");
     id_ = static_cast<std::size_t>(id - columns.begin());
-    top_ = s.review.template_top;
-    if (!s.review.decisions.empty())  // earlier decisions, to carry over with who and when
-      for (const auto& row : read_decision_file(s.review.decisions, s.input.reader.columns.id).rows) earlier_[row.id] = row;
-    out_.row({s.input.reader.columns.id, "scientificName", "rank", "score", "flags", "reasons", "decision", "note",
+    top_ = run.outputs.decisions_template_top;
+    if (run.decisions)  // earlier decisions, to carry over with who and when
+      for (const auto& row : run.decisions->rows) earlier_[row.id] = row;
+    out_.row({id_column, "scientificName", "rank", "score", "flags", "reasons", "decision", "note",
               "reviewer", "date"});
     table_ = &run.table;
   }
@@ -77,7 +77,7 @@ class DecisionsTemplateOutput : public RecordSink {
 
 }  // namespace
 
-std::unique_ptr<RecordSink> make_decisions_template_output(const std::string& path, const ScreenSettings&) {
+std::unique_ptr<RecordSink> make_decisions_template_output(const std::string& path) {
   return std::make_unique<DecisionsTemplateOutput>(path);
 }
 

@@ -14,7 +14,7 @@ class GisOutput : public RecordSink {
     // originals and words are text; sampled values and statistics are numbers; rank an integer
     std::vector<FieldKind> kinds(run.header.size(), FieldKind::real);
     for (std::size_t c = 0; c < run.table.points.columns.size(); ++c) kinds[c] = FieldKind::text;
-    const std::string& p = run.settings.outputs.column_prefix;
+    const std::string& p = run.outputs.column_prefix;
     for (std::size_t c = run.table.points.columns.size(); c < run.header.size(); ++c) {
       if (run.header[c] == p + "status" || run.header[c] == p + "flags" || run.header[c] == p + "reasons") kinds[c] = FieldKind::text;
       if (run.header[c] == p + "rank") kinds[c] = FieldKind::integer;
@@ -37,7 +37,7 @@ class GisOutput : public RecordSink {
 
 }  // namespace
 
-std::unique_ptr<RecordSink> make_gis_output(const std::string& path, const ScreenSettings&) {
+std::unique_ptr<RecordSink> make_gis_output(const std::string& path) {
   return std::make_unique<GisOutput>(path);
 }
 

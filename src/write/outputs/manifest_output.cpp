@@ -25,7 +25,7 @@ class ManifestOutput : public RecordSink {
 
 }  // namespace
 
-std::unique_ptr<RecordSink> make_manifest_output(const std::string& path, const ScreenSettings&) {
+std::unique_ptr<RecordSink> make_manifest_output(const std::string& path) {
   return std::make_unique<ManifestOutput>(path);
 }
 

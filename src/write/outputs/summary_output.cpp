@@ -5,6 +5,7 @@
 #include <mutex>
 
 #include "envsift/detect/reported_elevation.hpp"
+#include "envsift/detect/robust_z.hpp"
 #include "envsift/write/csv_writer.hpp"
 #include "envsift/write/output_registry.hpp"
 #include "envsift/write/taxon_summary.hpp"
@@ -18,7 +19,7 @@ class SummaryOutput : public RecordSink {
   std::string name() const override { return "summary"; }
   void begin(const RunContext& run) override {
     names_ = run.tests ? run.tests->names() : std::vector<std::string>{};
-    const auto& dem_layer = run.settings.elevation.dem_layer;
+    const std::string dem_layer = run.test_settings ? elevation_layer(*run.test_settings) : "";
     const auto dem = dem_layer.empty() ? std::nullopt : run.table.layer_index(dem_layer);
     if (dem) {
       for (std::size_t i = 0; i < run.table.size(); ++i) {
@@ -26,9 +27,9 @@ class SummaryOutput : public RecordSink {
         low_.push_back(r.low), high_.push_back(r.high);
         point_.push_back(run.table.values(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(*dem)));
       }
-      band_ = ElevationBand{&low_, &high_, &point_, run.settings.tests.z_cutoff};
+      band_ = ElevationBand{&low_, &high_, &point_, run.test_settings->own.get<RobustZSettings>().z_cutoff};
     }
-    decisions_ = !run.settings.review.decisions.empty();
+    decisions_ = !run.inputs.decisions.empty();
     const auto header = taxon_summary_header(names_, band_.has_value(), decisions_);
     out_.row(header);
     table_ = &run.table;
@@ -87,7 +88,7 @@ class SummaryOutput : public RecordSink {
 
 }  // namespace
 
-std::unique_ptr<RecordSink> make_summary_output(const std::string& path, const ScreenSettings&) {
+std::unique_ptr<RecordSink> make_summary_output(const std::string& path) {
   return std::make_unique<SummaryOutput>(path);
 }
 

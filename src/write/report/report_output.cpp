@@ -10,7 +10,7 @@
 #include <map>
 #include <mutex>
 
-#include "envsift/detect/per_layer_detector.hpp"
+#include "envsift/detect/range_check.hpp"
 #include "envsift/read/range_layer.hpp"
 #include "envsift/write/output_registry.hpp"
 #include "envsift/write/report/html_report.hpp"
@@ -23,7 +23,7 @@ namespace {
 constexpr std::size_t kTopSuspects = 100;
 
 ReliefSource relief_of(const RunContext& run) {
-  const auto dem = run.settings.elevation.dem_layer;
+  const std::string dem = run.test_settings ? elevation_layer(*run.test_settings) : "";
   if (dem.empty() || run.table.layers_are_columns) return {};
   if (const auto l = run.table.layer_index(dem)) return {run.table.layers[*l].spec.path, run.table.layers[*l].spec.band};
   return {};
@@ -57,10 +57,10 @@ class ReportOutput : public RecordSink {
 
   void begin(const RunContext& run) override {
     run_ = &run;
-    const auto& s = run.settings;
-    report_ = std::make_unique<HtmlReport>(path_, relief_of(run), s.tests.seed, s.tests.min_records);
+    const TestSettings& s = *run.test_settings;
+    report_ = std::make_unique<HtmlReport>(path_, relief_of(run), s.seed, s.min_records);
     const auto& columns = run.table.points.columns;
-    if (const auto it = std::find(columns.begin(), columns.end(), s.input.reader.columns.id); it != columns.end())
+    if (const auto it = std::find(columns.begin(), columns.end(), run.inputs.id_column); it != columns.end())
       id_column_ = static_cast<std::size_t>(it - columns.begin());
   }
 
@@ -76,9 +76,9 @@ class ReportOutput : public RecordSink {
     taxon_index_[taxon.taxon] = taxon.index;
     // keep the report-taxa worst: highest worst score first, ties by index (the same set in any thread order)
     const Key key{-worst, taxon.index};
-    if (kept_.size() == run_->settings.outputs.report_taxa && (kept_.empty() || !(key < kept_.rbegin()->first))) return;
+    if (kept_.size() == run_->outputs.report_taxa && (kept_.empty() || !(key < kept_.rbegin()->first))) return;
     kept_.emplace(key, Kept{taxon, verdicts, listing.judged});
-    if (kept_.size() > run_->settings.outputs.report_taxa) kept_.erase(std::prev(kept_.end()));
+    if (kept_.size() > run_->outputs.report_taxa) kept_.erase(std::prev(kept_.end()));
   }
 
   void record(const RecordOutcome& o) override {
@@ -92,25 +92,26 @@ class ReportOutput : public RecordSink {
   }
 
   void finish(const RunSummary& summary) override {
-    const auto& s = run_->settings;
+    const RunInputs& in = run_->inputs;
+    const TestSettings& s = *run_->test_settings;
     ReportOverview v;
-    v.title = "envsift screening report: " + s.input.points;
-    v.inputs.emplace_back("points", s.input.points);
+    v.title = "envsift screening report: " + in.points;
+    v.inputs.emplace_back("points", in.points);
     if (!run_->table.layers_are_columns)
       for (const auto& l : run_->table.layers)
         v.inputs.emplace_back("layer " + l.spec.name, l.spec.path + (l.spec.band > 1 ? " (band " + std::to_string(l.spec.band) + ")" : ""));
     else
-      for (const auto& c : s.input.value_columns) v.inputs.emplace_back("value column", c);
-    if (!s.review.decisions.empty()) v.inputs.emplace_back("decisions from earlier rounds", s.review.decisions);
-    v.inputs.emplace_back("output", s.outputs.out);
-    v.inputs.emplace_back("statistics from", s.tests.all_records ? "every record of each taxon"
+      for (const auto& c : in.value_columns) v.inputs.emplace_back("value column", c);
+    if (!in.decisions.empty()) v.inputs.emplace_back("decisions from earlier rounds", in.decisions);
+    v.inputs.emplace_back("output", run_->outputs.out);
+    v.inputs.emplace_back("statistics from", s.all_records ? "every record of each taxon"
                                                                   : "one row per distinct raster cell of each taxon");
-    v.inputs.emplace_back("minimum records per test", std::to_string(s.tests.min_records));
+    v.inputs.emplace_back("minimum records per test", std::to_string(s.min_records));
     for (const auto* entry : run_->tests->entries) v.tests.push_back(entry->describe(s));
     v.read = summary.read;
     v.scored = summary.scored;
     v.flagged = summary.flagged;
-    v.with_decisions = !s.review.decisions.empty();
+    v.with_decisions = !in.decisions.empty();
     v.decided = summary.decided;
     v.not_scored = summary.not_scored;
     v.codes = summary.codes;
@@ -128,7 +129,7 @@ class ReportOutput : public RecordSink {
     return static_cast<std::size_t>(std::count_if(verdicts.begin(), verdicts.end(), [](const Verdict& v) { return v.score.has_value(); }));
   }
   std::string taxon_name(std::size_t i) const {
-    return run_->settings.input.single_taxon ? "*" : run_->table.points.taxon(i);
+    return run_->inputs.single_taxon ? "*" : run_->table.points.taxon(i);
   }
   // Its ID, or "line N".
   std::string label(std::size_t i, const std::vector<std::string>* fields = nullptr) const {
@@ -192,7 +193,7 @@ void ReportOutput::draw_kept() {
   std::sort(taxa.begin(), taxa.end(), [](const Kept* a, const Kept* b) { return a->taxon.index < b->taxon.index; });
   std::vector<std::string> sections(taxa.size());
   std::vector<std::exception_ptr> errors(taxa.size());
-  const RangeSource ranges{run_->settings.ranges.path, run_->settings.ranges.taxon_field, run_->settings.ranges.filter};
+  const RangeSource ranges = run_->test_settings->own.get<RangeSettings>().source();
 #pragma omp parallel
   {
     std::unique_ptr<RangeLayer> layer;  // GDAL handles are per thread
@@ -223,7 +224,7 @@ TaxonPicture ReportOutput::picture(const JudgedTaxon& taxon, const std::vector<V
   const std::size_t layers = t.layers.size();
   TaxonPicture p;
   p.taxon = taxon.taxon;
-  p.reference_label = run_->settings.tests.all_records ? "records" : "distinct cells";
+  p.reference_label = run_->test_settings->all_records ? "records" : "distinct cells";
   p.two_populations = taxon.two_populations;
   p.reference.resize(static_cast<Eigen::Index>(taxon.reference.size()), static_cast<Eigen::Index>(layers));
   for (std::size_t r = 0; r < taxon.reference.size(); ++r)
@@ -234,8 +235,8 @@ TaxonPicture ReportOutput::picture(const JudgedTaxon& taxon, const std::vector<V
                                p.reference.col(static_cast<Eigen::Index>(l)).data() + p.reference.rows());
     const auto& entries = run_->tests->entries;
     for (std::size_t d = 0; d < run_->tests->detectors.size() && t.layers[l].judged; ++d) {
-      const auto* test = dynamic_cast<const PerLayerDetector*>(run_->tests->detectors[d].get());
-      if (!test || !entries[d]->cutoffs) continue;
+      const Detector* test = run_->tests->detectors[d].get();
+      if (!entries[d]->cutoffs) continue;
       if (const auto range = test->accepted_range(column, layer.name))
         layer.cutoffs.push_back({entries[d]->cutoffs->label, entries[d]->cutoffs->slot, range->first, range->second,
                                  test->flags_its_bounds(), entries[d]->cutoffs->words});
@@ -276,7 +277,7 @@ TaxonPicture ReportOutput::picture(const JudgedTaxon& taxon, const std::vector<V
 
 }  // namespace
 
-std::unique_ptr<RecordSink> make_report_output(const std::string& path, const ScreenSettings&) {
+std::unique_ptr<RecordSink> make_report_output(const std::string& path) {
   return std::make_unique<ReportOutput>(path);
 }
 

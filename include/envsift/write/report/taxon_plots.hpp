@@ -16,7 +16,7 @@
 
 #include <Eigen/Core>
 
-#include "envsift/detect/range_distance.hpp"
+#include "envsift/geo/range_distance.hpp"
 #include "envsift/review/decision.hpp"
 #include "envsift/write/report/svg_canvas.hpp"
 

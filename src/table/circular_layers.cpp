@@ -1,11 +1,11 @@
-#include "envsift/sample/circular_layers.hpp"
+#include "envsift/table/circular_layers.hpp"
 
 #include <algorithm>
 #include <cctype>
 #include <cmath>
 
 #include "envsift/errors.hpp"
-#include "envsift/record_table.hpp"
+#include "envsift/table/record_table.hpp"
 
 namespace envsift {
 

@@ -1,4 +1,4 @@
-#include "envsift/record_table.hpp"
+#include "envsift/table/record_table.hpp"
 
 #include <algorithm>
 #include <cmath>

@@ -11,7 +11,7 @@
 
 #include <Eigen/Core>
 
-#include "envsift/occurrence.hpp"
+#include "envsift/read/occurrence.hpp"
 #include "envsift/sample/raster_stack.hpp"
 
 namespace envsift {

@@ -1,4 +1,4 @@
-#include "envsift/crs_transform.hpp"
+#include "envsift/geo/crs_transform.hpp"
 
 #include <mutex>
 

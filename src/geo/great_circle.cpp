@@ -1,4 +1,4 @@
-#include "envsift/sample/great_circle.hpp"
+#include "envsift/geo/great_circle.hpp"
 
 #include <algorithm>
 #include <cmath>

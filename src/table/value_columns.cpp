@@ -1,4 +1,4 @@
-#include "envsift/sample/value_columns.hpp"
+#include "envsift/table/value_columns.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -11,21 +11,19 @@
 
 namespace envsift {
 
-RecordTable read_value_columns(const ScreenSettings& s, const std::vector<std::string>& added_columns) {
+RecordTable read_value_columns(PointTable points, const InputSettings& input, const std::vector<std::string>& added_columns) {
   RecordTable t;
-  ReaderOptions reader = s.input.reader;
-  reader.coordinates_optional = true;
-  t.points = read_points(s.input.points, reader);
+  t.points = std::move(points);
   t.warnings = t.points.warnings;
   t.layers_are_columns = true;
   std::vector<std::string> columns = t.points.columns;
   columns.insert(columns.end(), added_columns.begin(), added_columns.end());
   check_unique_columns(columns);
   std::vector<std::size_t> index;
-  for (const auto& name : s.input.value_columns) {
+  for (const auto& name : input.value_columns) {
     auto it = std::find(t.points.columns.begin(), t.points.columns.end(), name);
     if (it == t.points.columns.end())
-      throw InputError(s.input.points, 1, "no value column '" + name + "'", "check the names given to --value-columns");
+      throw InputError(input.points, 1, "no value column '" + name + "'", "check the names given to --value-columns");
     index.push_back(static_cast<std::size_t>(it - t.points.columns.begin()));
     LayerInfo column;
     column.spec.name = name;
@@ -52,7 +50,7 @@ RecordTable read_value_columns(const ScreenSettings& s, const std::vector<std::s
         key = fnv_mix(key, bits);
       } else {
         t.codes.add(i, reason::on_layer(v.problem == "empty" ? reason::value_missing : reason::value_not_numeric,
-                                        s.input.value_columns[l]));
+                                        input.value_columns[l]));
         key = fnv_mix(key, 0x9E3779B97F4A7C15ull);
       }
     }

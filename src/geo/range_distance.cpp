@@ -3,7 +3,7 @@
 // trigonometry, asin |p · n|, here as atan2 for accuracy), else to the nearer end; the bound on how
 // far a line drawn in longitude/latitude leaves a great circle is from the sphere's metric
 // (differential geometry; the derivation is at pieces_of). Textbook geometry, from memory.
-#include "envsift/detect/range_distance.hpp"
+#include "envsift/geo/range_distance.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -11,7 +11,7 @@
 
 #include <Eigen/Geometry>
 
-#include "envsift/sample/great_circle.hpp"
+#include "envsift/geo/great_circle.hpp"
 
 namespace envsift {
 namespace {

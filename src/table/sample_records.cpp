@@ -1,10 +1,9 @@
-#include "envsift/sample/sample_records.hpp"
+#include "envsift/table/sample_records.hpp"
 
 #include <cmath>
 #include <cstdio>
 
 #include "envsift/reason_codes.hpp"
-#include "envsift/settings/run_options.hpp"
 #include "envsift/stopwatch.hpp"
 
 namespace envsift {
@@ -64,19 +63,17 @@ void mark_possible_swaps(RecordTable& t, RasterStack& stack, const std::vector<d
 
 }  // namespace
 
-RecordTable sample_records(const ScreenSettings& s, const std::vector<std::string>& added_columns,
+RecordTable sample_records(PointTable points, const InputSettings& input, const SamplingSettings& sampling,
+                           Progress* progress, const std::vector<std::string>& added_columns,
                            const std::function<bool(const PointTable&, std::size_t)>& keep) {
   RecordTable t;
   Stopwatch clock;
-  const SamplingPlan plan = sampling_plan(s.sampling);
-  const auto specs = expand_layer_arguments(s.input.layers);
-  ReaderOptions reading = s.input.reader;
-  reading.progress = s.progress;
-  t.points = read_points(s.input.points, reading);
+  const SamplingPlan plan = sampling_plan(sampling);
+  const auto specs = expand_layer_arguments(input.layers);
+  t.points = std::move(points);
   t.warnings = t.points.warnings;
-  clock.lap(t.seconds, "read points");
   const std::size_t n = t.size();
-  t.has_discs = s.sampling.discs && (t.points.uncertainty_column || s.sampling.default_radius_m > 0);
+  t.has_discs = sampling.discs && (t.points.uncertainty_column || sampling.default_radius_m > 0);
   std::vector<std::string> columns = t.points.columns;
   for (const auto& spec : specs) {
     columns.push_back(spec.name);
@@ -86,7 +83,7 @@ RecordTable sample_records(const ScreenSettings& s, const std::vector<std::strin
   columns.insert(columns.end(), added_columns.begin(), added_columns.end());
   check_unique_columns(columns);
 
-  t.stack = std::make_shared<RasterStack>(specs, plan.cache_bytes, s.input.assume_crs);
+  t.stack = std::make_shared<RasterStack>(specs, plan.cache_bytes, input.assume_crs);
   RasterStack& stack = *t.stack;
   std::vector<double> lon(n), lat(n);
   for (std::size_t i = 0; i < n; ++i) {
@@ -95,7 +92,7 @@ RecordTable sample_records(const ScreenSettings& s, const std::vector<std::strin
     lat[i] = kept ? t.points.records[i].latitude : std::nan("");
   }
   stack.set_chunk_records(plan.chunk_records);
-  stack.set_progress(s.progress);
+  stack.set_progress(progress);
   Samples samples = stack.sample(lon, lat, plan.method);
   clock.lap(t.seconds, "sample");
   t.values = std::move(samples.values);
@@ -111,11 +108,11 @@ RecordTable sample_records(const ScreenSettings& s, const std::vector<std::strin
     t.radius_m.assign(n, 0.0);
     for (std::size_t i = 0; i < n; ++i) {
       const auto& u = t.points.records[i].uncertainty_m;
-      double r = u ? *u : s.sampling.default_radius_m;
-      if (r > s.sampling.max_radius_m) {
+      double r = u ? *u : sampling.default_radius_m;
+      if (r > sampling.max_radius_m) {
         t.codes.add(i, reason::uncertainty_capped);
-        t.notes[i].push_back("uncertainty " + metres(r) + " cut to " + metres(s.sampling.max_radius_m));
-        r = s.sampling.max_radius_m;
+        t.notes[i].push_back("uncertainty " + metres(r) + " cut to " + metres(sampling.max_radius_m));
+        r = sampling.max_radius_m;
       }
       t.radius_m[i] = r;
     }
