@@ -49,154 +49,16 @@
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
-#include <numeric>
 
-#include <Eigen/Cholesky>
 #include <Eigen/Eigenvalues>
-#include <boost/math/distributions/normal.hpp>
 
-#include "envsift/detect/test_registry.hpp"
-#include "envsift/errors.hpp"
+#include "envsift/detect/numerics.hpp"
+#include "landscape_model.hpp"
 
 namespace envsift {
 namespace {
 
-// One layer's map onto a common scale: piecewise linear through (value, score) points, beyond
-// them with `slope`.
-struct LayerScale {
-  std::vector<double> value, score;  // distinct landscape values, ascending, and their scores
-  double slope = 0;                  // beyond the ends
-  double operator()(double x) const {
-    if (x <= value.front()) return score.front() + (x - value.front()) * slope;
-    if (x >= value.back()) return score.back() + (x - value.back()) * slope;
-    const auto k = static_cast<std::size_t>(std::upper_bound(value.begin(), value.end(), x) - value.begin());
-    const double t = (x - value[k - 1]) / (value[k] - value[k - 1]);
-    return score[k - 1] + t * (score[k] - score[k - 1]);
-  }
-};
-
-// Standardised by the landscape's mean and standard deviation.
-LayerScale linear_scale(const std::vector<double>& v) {
-  double mean = 0, sq = 0;
-  for (double x : v) mean += x;
-  mean /= static_cast<double>(v.size());
-  for (double x : v) sq += (x - mean) * (x - mean);
-  const double sd = std::sqrt(sq / static_cast<double>(v.size() - 1));
-  const auto [lo, hi] = std::minmax_element(v.begin(), v.end());
-  LayerScale s;
-  s.value = {*lo, *hi};
-  s.score = {(*lo - mean) / sd, (*hi - mean) / sd};
-  s.slope = 1 / sd;
-  return s;
-}
-
-// The normal scores of the landscape's values: Φ⁻¹ of the mid-rank ECDF.
-LayerScale normal_scores(std::vector<double> v) {
-  std::sort(v.begin(), v.end());
-  const boost::math::normal normal;
-  LayerScale s;
-  const double m = static_cast<double>(v.size());
-  for (std::size_t i = 0; i < v.size();) {
-    std::size_t j = i;
-    while (j < v.size() && v[j] == v[i]) ++j;
-    const double mid_rank = (static_cast<double>(i) + static_cast<double>(j) + 1) / 2;  // 1-based
-    s.value.push_back(v[i]);
-    s.score.push_back(boost::math::quantile(normal, (mid_rank - 0.5) / m));
-    i = j;
-  }
-  if (s.value.size() > 1) s.slope = (s.score.back() - s.score.front()) / (s.value.back() - s.value.front());
-  return s;
-}
-
-// The quadratic features of whitened scores: 1, s_j, s_j², and s_j s_k (j < k) when `products`.
-Eigen::VectorXd features(const Eigen::VectorXd& s, bool products) {
-  const Eigen::Index d = s.size();
-  Eigen::VectorXd f(1 + 2 * d + (products ? d * (d - 1) / 2 : 0));
-  Eigen::Index k = 0;
-  f[k++] = 1;
-  for (Eigen::Index j = 0; j < d; ++j) f[k++] = s[j];
-  for (Eigen::Index j = 0; j < d; ++j) f[k++] = s[j] * s[j];
-  if (products)
-    for (Eigen::Index j = 0; j < d; ++j)
-      for (Eigen::Index l = j + 1; l < d; ++l) f[k++] = s[j] * s[l];
-  return f;
-}
-
-std::size_t feature_count(std::size_t d, bool products) { return 1 + 2 * d + (products ? d * (d - 1) / 2 : 0); }
-
-double log1p_exp(double x) { return x > 0 ? x + std::log1p(std::exp(-x)) : std::log1p(std::exp(x)); }
-
-// Ridge logistic regression by Newton's method with step halving: maximises
-// Σ w_i [y_i η_i − log(1 + e^η_i)] − ridge/2 · Σ_{j≥1} β_j².
-Eigen::VectorXd fit_logistic(const Eigen::MatrixXd& x, const Eigen::VectorXd& y, const Eigen::VectorXd& w, double ridge,
-                             double intercept, const Eigen::VectorXd& offset) {
-  const Eigen::Index p = x.cols();
-  Eigen::VectorXd beta = Eigen::VectorXd::Zero(p);
-  beta[0] = intercept;
-  Eigen::VectorXd penalty = Eigen::VectorXd::Constant(p, ridge);
-  penalty[0] = 0;
-  auto objective = [&](const Eigen::VectorXd& b) {
-    const Eigen::VectorXd eta = x * b + offset;
-    double sum = 0;
-    for (Eigen::Index i = 0; i < eta.size(); ++i) sum += w[i] * (y[i] * eta[i] - log1p_exp(eta[i]));
-    return sum - 0.5 * (penalty.array() * b.array().square()).sum();
-  };
-  double current = objective(beta);
-  for (int iteration = 0; iteration < 100; ++iteration) {
-    const Eigen::VectorXd eta = x * beta + offset;
-    Eigen::VectorXd prob(eta.size()), weight(eta.size());
-    for (Eigen::Index i = 0; i < eta.size(); ++i) {
-      prob[i] = 1 / (1 + std::exp(-eta[i]));
-      weight[i] = w[i] * prob[i] * (1 - prob[i]);
-    }
-    const Eigen::VectorXd gradient = x.transpose() * (w.array() * (y - prob).array()).matrix() - penalty.cwiseProduct(beta);
-    Eigen::MatrixXd hessian = x.transpose() * weight.asDiagonal() * x;
-    hessian.diagonal() += penalty;
-    hessian.diagonal().array() += 1e-10;
-    const Eigen::VectorXd step = hessian.ldlt().solve(gradient);
-    double scale = 1, next = current;
-    Eigen::VectorXd candidate = beta;
-    for (int halving = 0; halving < 30; ++halving, scale /= 2) {
-      candidate = beta + scale * step;
-      next = objective(candidate);
-      if (next >= current) break;
-    }
-    if (!(next >= current)) break;
-    const double moved = (candidate - beta).cwiseAbs().maxCoeff();
-    beta = candidate;
-    current = next;
-    if (moved < 1e-9) break;
-  }
-  return beta;
-}
-
-// A unimodal response: the quadratic part's matrix Q (η = β₀ + bᵀs + sᵀQs) made negative
-// definite, every eigenvalue at most −curvature, and the intercept and linear terms refitted with
-// the quadratic part fixed. Without it, a taxon at the edge of its landscape (the highest
-// ground) gets a convex η that calls environments beyond the landscape ever more suitable.
-Eigen::VectorXd unimodal(const Eigen::MatrixXd& design, const Eigen::VectorXd& y, const Eigen::VectorXd& w,
-                         Eigen::VectorXd beta, Eigen::Index d, bool products, double ridge, double curvature) {
-  Eigen::MatrixXd q(d, d);
-  Eigen::Index k = 1 + 2 * d;
-  for (Eigen::Index j = 0; j < d; ++j) {
-    q(j, j) = beta[1 + d + j];
-    for (Eigen::Index l = j + 1; l < d; ++l) q(j, l) = q(l, j) = products ? beta[k++] / 2 : 0;
-  }
-  Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd> eig(q);
-  if (eig.eigenvalues().maxCoeff() <= -curvature) return beta;
-  const Eigen::VectorXd clamped = eig.eigenvalues().cwiseMin(-curvature);
-  q = eig.eigenvectors() * clamped.asDiagonal() * eig.eigenvectors().transpose();
-  k = 1 + 2 * d;
-  for (Eigen::Index j = 0; j < d; ++j) {
-    beta[1 + d + j] = q(j, j);
-    for (Eigen::Index l = j + 1; l < d && products; ++l) beta[k++] = 2 * q(j, l);
-  }
-  const Eigen::Index fixed = design.cols() - 1 - d;
-  const Eigen::VectorXd offset = design.rightCols(fixed) * beta.tail(fixed);
-  const Eigen::VectorXd head = fit_logistic(design.leftCols(1 + d), y, w, ridge, beta[0], offset);
-  beta.head(1 + d) = head;
-  return beta;
-}
+using namespace landscape_model;
 
 std::string percent(double share) {
   char buf[32];
@@ -214,61 +76,78 @@ std::string times(double ratio) {
   return buf;
 }
 
-}  // namespace
-
-std::vector<Finding> LandscapeTest::judge(const TaxonValues& taxon) const {
-  const auto rows = static_cast<std::size_t>(taxon.records.rows());
-  const std::string me = name();
-  if (!taxon.landscape || taxon.landscape->values.rows() == 0) return untested(rows, "no_landscape:" + me);
-  const Eigen::MatrixXd& land = taxon.landscape->values;
-  const Eigen::Index L = taxon.records.cols();
-
-  // Layers: enough of the taxon's values, and a spread over the landscape.
-  std::vector<Eigen::Index> layers;
-  bool enough_values = false;
-  for (Eigen::Index l = 0; l < L; ++l) {
-    if (static_cast<std::size_t>(taxon.reference.col(l).array().isFinite().count()) < options_.min_records) continue;
-    enough_values = true;
-    const Eigen::ArrayXd c = land.col(l).array();
-    const auto finite = c.isFinite();
-    if (static_cast<std::size_t>(finite.count()) < options_.min_cells) continue;
-    const double lo = finite.select(c, INFINITY).minCoeff(), hi = finite.select(c, -INFINITY).maxCoeff();
-    if (hi > lo) layers.push_back(l);
-  }
-  auto complete = [&](const Eigen::MatrixXd& m, Eigen::Index r) {
+// What the model is fitted on: the layers with enough of the taxon's values and a spread over
+// the landscape, and the landscape cells and the taxon's places complete on them.
+struct Sample {
+  std::vector<Eigen::Index> layers, cells, places;
+  bool complete(const Eigen::MatrixXd& m, Eigen::Index r) const {
     for (Eigen::Index l : layers)
       if (!std::isfinite(m(r, l))) return false;
     return !layers.empty();
-  };
-  if (!enough_values) return untested(rows, "too_few_records:" + me);
-  std::vector<Eigen::Index> cells, places;
-  for (Eigen::Index r = 0; r < land.rows(); ++r)
-    if (complete(land, r)) cells.push_back(r);
-  for (Eigen::Index r = 0; r < taxon.reference.rows(); ++r)
-    if (complete(taxon.reference, r)) places.push_back(r);
-  if (cells.size() < options_.min_cells) return untested(rows, "no_landscape:" + me);
-  if (places.size() < options_.min_records) return untested(rows, "too_few_records:" + me);
-  const auto q = static_cast<Eigen::Index>(layers.size());
-
-  // Each layer on the landscape's scale, then the landscape's whitened principal components.
-  std::vector<LayerScale> maps;
-  for (Eigen::Index l : layers) {
-    std::vector<double> v;
-    for (Eigen::Index r : cells) v.push_back(land(r, l));
-    maps.push_back(options_.normal_scores ? normal_scores(std::move(v)) : linear_scale(v));
   }
-  auto mapped = [&](auto&& value_of) {
+};
+
+// The sample, or the code that says why the taxon cannot be judged.
+std::string choose_sample(const TaxonValues& taxon, const LandscapeTestOptions& o, const std::string& me, Sample& s) {
+  const Eigen::MatrixXd& land = taxon.landscape->values;
+  bool enough_values = false;
+  for (Eigen::Index l = 0; l < taxon.records.cols(); ++l) {
+    if (static_cast<std::size_t>(taxon.reference.col(l).array().isFinite().count()) < o.min_records) continue;
+    enough_values = true;
+    const Eigen::ArrayXd c = land.col(l).array();
+    const auto finite = c.isFinite();
+    if (static_cast<std::size_t>(finite.count()) < o.min_cells) continue;
+    const double lo = finite.select(c, INFINITY).minCoeff(), hi = finite.select(c, -INFINITY).maxCoeff();
+    if (hi > lo) s.layers.push_back(l);
+  }
+  if (!enough_values) return "too_few_records:" + me;
+  for (Eigen::Index r = 0; r < land.rows(); ++r)
+    if (s.complete(land, r)) s.cells.push_back(r);
+  for (Eigen::Index r = 0; r < taxon.reference.rows(); ++r)
+    if (s.complete(taxon.reference, r)) s.places.push_back(r);
+  if (s.cells.size() < o.min_cells) return "no_landscape:" + me;
+  if (s.places.size() < o.min_records) return "too_few_records:" + me;
+  return "";
+}
+
+// The landscape's scale: each layer mapped onto it, then the landscape's whitened principal
+// components, as many as the places can afford (one coefficient per 5), products if affordable.
+struct Basis {
+  std::vector<Eigen::Index> layers;
+  std::vector<LayerScale> maps;
+  Eigen::RowVectorXd centre;
+  Eigen::MatrixXd whiten;
+  std::size_t d = 0;
+  bool products = false;
+
+  template <class ValueOf>
+  Eigen::VectorXd mapped(ValueOf&& value_of) const {
+    const auto q = static_cast<Eigen::Index>(layers.size());
     Eigen::VectorXd z(q);
     for (Eigen::Index j = 0; j < q; ++j) z[j] = maps[static_cast<std::size_t>(j)](value_of(layers[static_cast<std::size_t>(j)]));
     return z;
-  };
-  const auto m = static_cast<Eigen::Index>(cells.size()), n = static_cast<Eigen::Index>(places.size());
-  Eigen::MatrixXd zl(m, q), zp(n, q);
-  for (Eigen::Index i = 0; i < m; ++i) zl.row(i) = mapped([&](Eigen::Index l) { return land(cells[static_cast<std::size_t>(i)], l); });
-  for (Eigen::Index i = 0; i < n; ++i)
-    zp.row(i) = mapped([&](Eigen::Index l) { return taxon.reference(places[static_cast<std::size_t>(i)], l); });
-  const Eigen::RowVectorXd centre = zl.colwise().mean();
-  const Eigen::MatrixXd centred = zl.rowwise() - centre;
+  }
+  Eigen::VectorXd features_of(const Eigen::VectorXd& z) const {
+    return features(whiten.transpose() * (z - centre.transpose()), products);
+  }
+};
+
+// The basis, or d = 0 when the places afford no dimension; `zl`: the landscape cells mapped.
+Basis choose_basis(const TaxonValues& taxon, const Sample& s, const LandscapeTestOptions& o, Eigen::MatrixXd& zl) {
+  const Eigen::MatrixXd& land = taxon.landscape->values;
+  Basis b;
+  b.layers = s.layers;
+  const auto q = static_cast<Eigen::Index>(s.layers.size());
+  for (Eigen::Index l : s.layers) {
+    std::vector<double> v;
+    for (Eigen::Index r : s.cells) v.push_back(land(r, l));
+    b.maps.push_back(o.normal_scores ? normal_scores(std::move(v)) : linear_scale(v));
+  }
+  const auto m = static_cast<Eigen::Index>(s.cells.size());
+  zl.resize(m, q);
+  for (Eigen::Index i = 0; i < m; ++i) zl.row(i) = b.mapped([&](Eigen::Index l) { return land(s.cells[static_cast<std::size_t>(i)], l); });
+  b.centre = zl.colwise().mean();
+  const Eigen::MatrixXd centred = zl.rowwise() - b.centre;
   Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd> eig((centred.transpose() * centred) / static_cast<double>(m - 1));
   const Eigen::VectorXd& lambda = eig.eigenvalues();  // ascending
   const double total = lambda.sum(), largest = lambda[q - 1];
@@ -279,127 +158,157 @@ std::vector<Finding> LandscapeTest::judge(const TaxonValues& taxon) const {
     covered += next;
     ++available;
   }
-  available = std::min(available, options_.max_dimensions);
-  // The largest dimension the places can afford (one coefficient per 5), products if affordable.
-  const std::size_t budget = places.size() / 5;
-  std::size_t d = 0;
-  bool products = false;
-  for (std::size_t k = available; k >= 1 && d == 0; --k) {
-    if (feature_count(k, true) <= budget) d = k, products = true;
-    else if (feature_count(k, false) <= budget) d = k;
+  available = std::min(available, o.max_dimensions);
+  const std::size_t budget = s.places.size() / 5;
+  for (std::size_t k = available; k >= 1 && b.d == 0; --k) {
+    if (feature_count(k, true) <= budget) b.d = k, b.products = true;
+    else if (feature_count(k, false) <= budget) b.d = k;
   }
-  if (d == 0) return untested(rows, "too_few_records:" + me);
-  Eigen::MatrixXd whiten(q, static_cast<Eigen::Index>(d));
-  for (std::size_t c = 0; c < d; ++c) {
+  b.whiten.resize(q, static_cast<Eigen::Index>(b.d));
+  for (std::size_t c = 0; c < b.d; ++c) {
     const Eigen::Index at = q - 1 - static_cast<Eigen::Index>(c);
-    Eigen::VectorXd v = eig.eigenvectors().col(at);
-    Eigen::Index big;
-    v.cwiseAbs().maxCoeff(&big);
-    if (v[big] < 0) v = -v;  // a fixed sign, whatever the solver returns
-    whiten.col(static_cast<Eigen::Index>(c)) = v / std::sqrt(lambda[at]);
+    b.whiten.col(static_cast<Eigen::Index>(c)) = fixed_sign(eig.eigenvectors().col(at)) / std::sqrt(lambda[at]);
   }
-  auto eta_of = [&](const Eigen::VectorXd& beta, const Eigen::VectorXd& z) {
-    return features(whiten.transpose() * (z - centre.transpose()), products).dot(beta);
-  };
+  return b;
+}
 
-  // Fit, then refit without the places the first fit flags.
-  const Eigen::Index p = static_cast<Eigen::Index>(feature_count(d, products));
+// The fitted logit: a first fit, then a refit without the places it flags; η of every landscape
+// cell and place, sorted, to count those at least as unsuited as a record.
+struct Fit {
+  Eigen::VectorXd beta;
+  double log_n_over_m = 0;
+  std::vector<double> eta_land, eta_places;
+};
+
+Fit fit_model(const TaxonValues& taxon, const Sample& s, const Basis& b, const Eigen::MatrixXd& zl,
+              const LandscapeTestOptions& o) {
+  const auto m = static_cast<Eigen::Index>(s.cells.size()), n = static_cast<Eigen::Index>(s.places.size());
+  const Eigen::Index p = static_cast<Eigen::Index>(feature_count(b.d, b.products));
   Eigen::MatrixXd design(n + m, p);
   Eigen::VectorXd y(n + m), w = Eigen::VectorXd::Ones(n + m);
-  for (Eigen::Index i = 0; i < n; ++i) design.row(i) = features(whiten.transpose() * (zp.row(i) - centre).transpose(), products), y[i] = 1;
-  for (Eigen::Index i = 0; i < m; ++i) design.row(n + i) = features(whiten.transpose() * (zl.row(i) - centre).transpose(), products), y[n + i] = 0;
-  const double log_cutoff = std::log(options_.ratio_cutoff);
+  for (Eigen::Index i = 0; i < n; ++i) {
+    const Eigen::VectorXd zp = b.mapped([&](Eigen::Index l) { return taxon.reference(s.places[static_cast<std::size_t>(i)], l); });
+    design.row(i) = b.features_of(zp), y[i] = 1;
+  }
+  for (Eigen::Index i = 0; i < m; ++i) design.row(n + i) = b.features_of(zl.row(i).transpose()), y[n + i] = 0;
+  const double log_cutoff = std::log(o.ratio_cutoff);
   const Eigen::VectorXd no_offset = Eigen::VectorXd::Zero(n + m);
   auto fit = [&](double intercept) {
-    const Eigen::VectorXd b = fit_logistic(design, y, w, options_.ridge, intercept, no_offset);
-    return unimodal(design, y, w, b, static_cast<Eigen::Index>(d), products, options_.ridge, options_.curvature);
+    const Eigen::VectorXd beta = fit_logistic(design, y, w, o.ridge, intercept, no_offset);
+    return unimodal(design, y, w, beta, static_cast<Eigen::Index>(b.d), b.products, o.ridge, o.curvature);
   };
-  Eigen::VectorXd beta = fit(std::log(static_cast<double>(n) / static_cast<double>(m)));
+  Fit f;
+  f.beta = fit(std::log(static_cast<double>(n) / static_cast<double>(m)));
   double used = static_cast<double>(n);
-  {
-    const Eigen::VectorXd eta = design.topRows(n) * beta;
-    for (Eigen::Index i = 0; i < n; ++i)
-      if (std::log(used / static_cast<double>(m)) - eta[i] > log_cutoff) w[i] = 0;
-    const double kept = w.head(n).sum();
-    if (kept < static_cast<double>(n) && kept >= static_cast<double>(options_.min_records)) {
-      used = kept;
-      beta = fit(std::log(used / static_cast<double>(m)));
-    }
+  const Eigen::VectorXd eta = design.topRows(n) * f.beta;
+  for (Eigen::Index i = 0; i < n; ++i)
+    if (std::log(used / static_cast<double>(m)) - eta[i] > log_cutoff) w[i] = 0;
+  const double kept = w.head(n).sum();
+  if (kept < static_cast<double>(n) && kept >= static_cast<double>(o.min_records)) {
+    used = kept;
+    f.beta = fit(std::log(used / static_cast<double>(m)));
   }
-  const double log_n_over_m = std::log(used / static_cast<double>(m));
-  std::vector<double> eta_land(static_cast<std::size_t>(m)), eta_places(static_cast<std::size_t>(n));
-  for (Eigen::Index i = 0; i < m; ++i) eta_land[static_cast<std::size_t>(i)] = design.row(n + i).dot(beta);
-  for (Eigen::Index i = 0; i < n; ++i) eta_places[static_cast<std::size_t>(i)] = design.row(i).dot(beta);
-  std::sort(eta_land.begin(), eta_land.end());
-  std::sort(eta_places.begin(), eta_places.end());
+  f.log_n_over_m = std::log(used / static_cast<double>(m));
+  for (Eigen::Index i = 0; i < m; ++i) f.eta_land.push_back(design.row(n + i).dot(f.beta));
+  for (Eigen::Index i = 0; i < n; ++i) f.eta_places.push_back(design.row(i).dot(f.beta));
+  std::sort(f.eta_land.begin(), f.eta_land.end());
+  std::sort(f.eta_places.begin(), f.eta_places.end());
+  return f;
+}
 
+// Within a disc, the largest η over the box [lo, hi] of mapped values, by coordinate ascent from
+// z (η is quadratic along each coordinate, so each step is exact: the vertex if concave and
+// inside, else an end).
+double best_in_box(const Basis& b, const Eigen::VectorXd& beta, Eigen::VectorXd z, const Eigen::VectorXd& lo,
+                   const Eigen::VectorXd& hi, double eta) {
+  auto eta_of = [&](const Eigen::VectorXd& t) { return b.features_of(t).dot(beta); };
+  for (int sweep = 0; sweep < 20; ++sweep) {
+    double gained = 0;
+    for (Eigen::Index j = 0; j < z.size(); ++j) {
+      if (!(hi[j] > lo[j])) continue;
+      auto at = [&](double v) {
+        Eigen::VectorXd t = z;
+        t[j] = v;
+        return eta_of(t);
+      };
+      const double e0 = at(z[j]), ep = at(z[j] + 1), em = at(z[j] - 1);
+      const double curvature = (ep + em) / 2 - e0, slope = (ep - em) / 2;
+      std::vector<double> tries{lo[j], hi[j]};
+      if (curvature < 0) tries.push_back(std::clamp(z[j] - slope / (2 * curvature), lo[j], hi[j]));
+      double best = z[j], best_eta = e0;
+      for (double v : tries)
+        if (const double e = at(v); e > best_eta) best = v, best_eta = e;
+      gained += best_eta - e0;
+      z[j] = best;
+      eta = best_eta;
+    }
+    if (gained < 1e-10) break;
+  }
+  return eta;
+}
+
+// One record: its η (the best within its disc), the ratio a/f, and the evidence in counts.
+Finding judge_record(const TaxonValues& taxon, Eigen::Index r, const Basis& b, const Fit& fit, std::size_t places,
+                     const LandscapeTestOptions& o) {
+  Finding f;
+  const Eigen::VectorXd z = b.mapped([&](Eigen::Index l) { return taxon.records(r, l); });
+  double eta = b.features_of(z).dot(fit.beta);
+  Eigen::VectorXd lo = z, hi = z;
+  for (Eigen::Index j = 0; j < z.size(); ++j) {
+    const auto [a, c] = taxon.range(r, b.layers[static_cast<std::size_t>(j)]);
+    lo[j] = b.maps[static_cast<std::size_t>(j)](a), hi[j] = b.maps[static_cast<std::size_t>(j)](c);
+  }
+  const bool disc = (hi - lo).maxCoeff() > 0;
+  if (disc) eta = best_in_box(b, fit.beta, z, lo, hi, eta);
+  const double log_cutoff = std::log(o.ratio_cutoff);
+  const double log_ratio = std::min(fit.log_n_over_m - eta, 700.0);
+  // "At most the record's η", ties included: a cell or place in the record's own environment
+  // (often its own cell) gets η by another sum of the same terms, equal up to rounding, and the
+  // rounding was seen to differ between machines; a tolerance far above rounding and far below
+  // any real difference makes the count the same everywhere.
+  const double at_most = eta + 1e-9 * std::max(1.0, std::fabs(eta));
+  const auto& land = fit.eta_land;
+  const double area_share =
+      static_cast<double>(std::upper_bound(land.begin(), land.end(), at_most) - land.begin()) / static_cast<double>(land.size());
+  const auto places_there =
+      static_cast<std::size_t>(std::upper_bound(fit.eta_places.begin(), fit.eta_places.end(), at_most) - fit.eta_places.begin());
+  f.tested = true;
+  f.statistic = std::exp(log_ratio);
+  f.threshold = o.ratio_cutoff;
+  f.severity = log_ratio > 0 ? std::sqrt(log_ratio / log_cutoff) : 0.0;  // on the D² scale, like Mahalanobis
+  const double place_share = static_cast<double>(places_there) / static_cast<double>(places);
+  f.flagged = log_ratio > log_cutoff && place_share <= o.max_place_share;
+  f.extras = {area_share};
+  if (f.flagged) {
+    char buf[400];
+    std::snprintf(buf, sizeof buf,
+                  "landscape: this environment is %s times more common %s than among the taxon's records: "
+                  "environments as unsuited to it cover %s of that landscape and hold %zu of its %zu places (%s)%s",
+                  times(f.statistic).c_str(), taxon.landscape->area.c_str(), percent(area_share).c_str(), places_there,
+                  places, percent(static_cast<double>(places_there) / static_cast<double>(places)).c_str(),
+                  disc ? ", for the value within its uncertainty disc that fits the taxon best" : "");
+    f.reasons.push_back(buf);
+  }
+  return f;
+}
+
+}  // namespace
+
+std::vector<Finding> LandscapeTest::judge(const TaxonValues& taxon) const {
+  const auto rows = static_cast<std::size_t>(taxon.records.rows());
+  const std::string me = name();
+  if (!taxon.landscape || taxon.landscape->values.rows() == 0) return untested(rows, "no_landscape:" + me);
+  Sample sample;
+  if (const std::string why = choose_sample(taxon, options_, me, sample); !why.empty()) return untested(rows, why);
+  Eigen::MatrixXd zl;
+  const Basis basis = choose_basis(taxon, sample, options_, zl);
+  if (basis.d == 0) return untested(rows, "too_few_records:" + me);
+  const Fit fit = fit_model(taxon, sample, basis, zl, options_);
   std::vector<Finding> findings(rows);
   for (std::size_t i = 0; i < rows; ++i) {
-    Finding& f = findings[i];
     const auto r = static_cast<Eigen::Index>(i);
-    if (!complete(taxon.records, r)) {
-      f.untested_code = "missing_value:" + me;
-      continue;
-    }
-    Eigen::VectorXd z = mapped([&](Eigen::Index l) { return taxon.records(r, l); });
-    double eta = eta_of(beta, z);
-    // Within the disc: coordinate ascent of η over the box of mapped values (η is quadratic along
-    // each coordinate, so each step is exact: the vertex if concave and inside, else an end).
-    Eigen::VectorXd lo = z, hi = z;
-    for (Eigen::Index j = 0; j < q; ++j) {
-      const auto [a, b] = taxon.range(r, layers[static_cast<std::size_t>(j)]);
-      lo[j] = maps[static_cast<std::size_t>(j)](a), hi[j] = maps[static_cast<std::size_t>(j)](b);
-    }
-    const bool disc = (hi - lo).maxCoeff() > 0;
-    for (int sweep = 0; disc && sweep < 20; ++sweep) {
-      double gained = 0;
-      for (Eigen::Index j = 0; j < q; ++j) {
-        if (!(hi[j] > lo[j])) continue;
-        auto at = [&](double v) {
-          Eigen::VectorXd t = z;
-          t[j] = v;
-          return eta_of(beta, t);
-        };
-        const double e0 = at(z[j]), ep = at(z[j] + 1), em = at(z[j] - 1);
-        const double curvature = (ep + em) / 2 - e0, slope = (ep - em) / 2;
-        std::vector<double> tries{lo[j], hi[j]};
-        if (curvature < 0) tries.push_back(std::clamp(z[j] - slope / (2 * curvature), lo[j], hi[j]));
-        double best = z[j], best_eta = e0;
-        for (double v : tries)
-          if (const double e = at(v); e > best_eta) best = v, best_eta = e;
-        gained += best_eta - e0;
-        z[j] = best;
-        eta = best_eta;
-      }
-      if (gained < 1e-10) break;
-    }
-    const double log_ratio = std::min(log_n_over_m - eta, 700.0);
-    // "At most the record's η", ties included: a cell or place in the record's own environment
-    // (often its own cell) gets η by another sum of the same terms, equal up to rounding, and the
-    // rounding was seen to differ between machines; a tolerance far above rounding and far below
-    // any real difference makes the count the same everywhere.
-    const double at_most = eta + 1e-9 * std::max(1.0, std::fabs(eta));
-    const double area_share =
-        static_cast<double>(std::upper_bound(eta_land.begin(), eta_land.end(), at_most) - eta_land.begin()) / static_cast<double>(m);
-    const auto places_there =
-        static_cast<std::size_t>(std::upper_bound(eta_places.begin(), eta_places.end(), at_most) - eta_places.begin());
-    f.tested = true;
-    f.statistic = std::exp(log_ratio);
-    f.threshold = options_.ratio_cutoff;
-    f.severity = log_ratio > 0 ? std::sqrt(log_ratio / log_cutoff) : 0.0;  // on the D² scale, like Mahalanobis
-    const double place_share = static_cast<double>(places_there) / static_cast<double>(places.size());
-    f.flagged = log_ratio > log_cutoff && place_share <= options_.max_place_share;
-    f.extras = {area_share};
-    if (f.flagged) {
-      char buf[400];
-      std::snprintf(buf, sizeof buf,
-                    "landscape: this environment is %s times more common %s than among the taxon's records: "
-                    "environments as unsuited to it cover %s of that landscape and hold %zu of its %zu places (%s)%s",
-                    times(f.statistic).c_str(), taxon.landscape->area.c_str(), percent(area_share).c_str(), places_there,
-                    places.size(), percent(static_cast<double>(places_there) / static_cast<double>(places.size())).c_str(),
-                    disc ? ", for the value within its uncertainty disc that fits the taxon best" : "");
-      f.reasons.push_back(buf);
-    }
+    if (!sample.complete(taxon.records, r)) findings[i].untested_code = "missing_value:" + me;
+    else findings[i] = judge_record(taxon, r, basis, fit, sample.places.size(), options_);
   }
   return findings;
 }

@@ -40,6 +40,7 @@
 
 #include "envsift/detect/chi_square.hpp"
 #include "envsift/detect/robust_z.hpp"
+#include "envsift/detect/numerics.hpp"
 #include "envsift/detect/skew_scale.hpp"
 
 namespace envsift {
@@ -75,11 +76,7 @@ ReducedSpace reduce(const Eigen::MatrixXd& complete, const MahalanobisOptions& o
   keep = std::min<Eigen::Index>(keep, m / static_cast<Eigen::Index>(o.rows_per_dimension));
   space.basis.resize(p, keep);
   for (Eigen::Index c = 0; c < keep; ++c) {
-    Eigen::VectorXd v = eig.eigenvectors().col(p - 1 - c);
-    Eigen::Index at;
-    v.cwiseAbs().maxCoeff(&at);
-    if (v[at] < 0) v = -v;  // a fixed sign, so results never depend on the solver's choice
-    space.basis.col(c) = v;
+    space.basis.col(c) = fixed_sign(eig.eigenvectors().col(p - 1 - c));
   }
   return space;
 }
@@ -95,27 +92,9 @@ Estimate Mahalanobis::estimate(const Eigen::MatrixXd& scores, const Eigen::Matri
 
 namespace {
 
-// The pseudo-inverse of the scatter over its directions with eigenvalue above floor · largest,
-// and how many there are. A robust scatter is flat along a direction when more than half the
-// reference rows share one value there (an "exact fit", e.g. a layer of few classes): that
-// direction has no scale to measure by and is left out, like a layer without spread.
-struct Precision {
-  Eigen::MatrixXd matrix;
-  std::size_t rank = 0;
-};
-Precision pseudo_inverse(const Eigen::MatrixXd& scatter, double floor) {
-  Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd> eig(scatter);
-  const double largest = eig.eigenvalues().maxCoeff();
-  Eigen::VectorXd inv = Eigen::VectorXd::Zero(eig.eigenvalues().size());
-  Precision p;
-  for (Eigen::Index i = 0; i < inv.size(); ++i)
-    if (largest > 0 && eig.eigenvalues()[i] > floor * largest) {
-      inv[i] = 1 / eig.eigenvalues()[i];
-      ++p.rank;
-    }
-  p.matrix = eig.eigenvectors() * inv.asDiagonal() * eig.eigenvectors().transpose();
-  return p;
-}
+// A robust scatter is flat along a direction when more than half the reference rows share one
+// value there (an "exact fit", e.g. a layer of few classes): its pseudo-inverse (numerics.hpp)
+// leaves that direction out, like a layer without spread.
 
 // The e in the box [lo, hi] with the smallest eᵀ A e (A positive semi-definite), by cyclic
 // coordinate descent from `start`: each step minimises exactly along one coordinate and clamps to
