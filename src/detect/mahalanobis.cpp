@@ -160,6 +160,71 @@ std::vector<Finding> Mahalanobis::judge(const TaxonValues& taxon) const {
   return judge_values(adjusted);
 }
 
+// A row in standardised units of the space's layers; `row(l)` gives the value on layer l.
+template <class Row>
+Eigen::VectorXd standardise(const ReducedSpace& space, Row&& row) {
+  const auto used = static_cast<Eigen::Index>(space.layers.size());
+  Eigen::VectorXd z(used);
+  for (Eigen::Index j = 0; j < used; ++j) {
+    const Eigen::Index layer = static_cast<Eigen::Index>(space.layers[static_cast<std::size_t>(j)]);
+    z[j] = (row(layer) - space.mean[j]) / space.scale[j];
+  }
+  return z;
+}
+
+// The taxon's fitted space as every record is judged in it.
+struct Mahalanobis::FittedSpace {
+  const ReducedSpace& space;
+  const std::vector<Eigen::Index>& layers;  // the taxon's layers (space.layers index into them)
+  const Eigen::MatrixXd& precision;         // A, in standardised layer units
+  const Eigen::VectorXd& centre;            // Bc, in standardised layer units
+  std::size_t dims;
+  double cutoff;
+};
+
+Finding Mahalanobis::judge_record(const TaxonValues& taxon, Eigen::Index row, const FittedSpace& m) const {
+  Finding f;
+  bool complete_record = true;
+  for (std::size_t j : m.space.layers)
+    complete_record = complete_record && std::isfinite(taxon.records(row, m.layers[j]));
+  if (!complete_record) {
+    f.untested_code = "missing_value:" + name();
+    return f;
+  }
+  // Deviation from the centre in standardised layer units; D² = eᵀ A e.
+  const Eigen::VectorXd z = standardise(m.space, [&](Eigen::Index l) { return taxon.records(row, m.layers[static_cast<std::size_t>(l)]); });
+  const auto used = static_cast<Eigen::Index>(m.space.layers.size());
+  Eigen::VectorXd e = z - m.centre;
+  Eigen::VectorXd lo = e, hi = e;
+  for (Eigen::Index j = 0; j < used; ++j) {
+    const Eigen::Index l = m.layers[m.space.layers[static_cast<std::size_t>(j)]];
+    const auto [a, b] = taxon.range(row, l);
+    lo[j] = (a - m.space.mean[j]) / m.space.scale[j] - m.centre[j];
+    hi[j] = (b - m.space.mean[j]) / m.space.scale[j] - m.centre[j];
+  }
+  const bool disc = (hi - lo).maxCoeff() > 0;
+  if (disc) e = closest_in_box(m.precision, lo, hi, e);
+  const Eigen::VectorXd ae = m.precision * e;
+  const double d2 = std::max(0.0, e.dot(ae));
+  f.tested = true;
+  f.statistic = d2;
+  f.threshold = m.cutoff;
+  f.severity = std::sqrt(d2 / m.cutoff);  // a distance ratio, comparable with |z| / cutoff
+  f.flagged = d2 > m.cutoff;
+  f.extras = {static_cast<double>(m.dims)};
+  if (f.flagged) {
+    std::vector<std::pair<double, std::string>> shares;
+    double positive = 0;
+    for (Eigen::Index j = 0; j < used; ++j) positive += std::max(0.0, e[j] * ae[j]);
+    for (Eigen::Index j = 0; j < used; ++j)
+      shares.emplace_back(positive > 0 ? std::max(0.0, e[j] * ae[j]) / positive : 0.0,
+                          taxon.layer_names[static_cast<std::size_t>(m.layers[m.space.layers[static_cast<std::size_t>(j)]])]);
+    f.reasons.push_back(describe(name(), d2, m.cutoff, m.dims, std::move(shares)) +
+                        (disc ? ", for the combination within its uncertainty disc closest to the taxon" : ""));
+  }
+  return f;
+}
+
 std::vector<Finding> Mahalanobis::judge_values(const TaxonValues& taxon) const {
   const auto rows = static_cast<std::size_t>(taxon.records.rows());
   const Eigen::Index p = taxon.records.cols();
@@ -185,17 +250,9 @@ std::vector<Finding> Mahalanobis::judge_values(const TaxonValues& taxon) const {
   const std::size_t k = space.dimensions();
   if (k == 0) return untested(rows, space.layers.empty() ? "no_spread:" + name() : too_few);
   const auto used = static_cast<Eigen::Index>(space.layers.size());
-  auto standardise = [&](auto&& row) {
-    Eigen::VectorXd z(used);
-    for (Eigen::Index j = 0; j < used; ++j) {
-      const Eigen::Index layer = static_cast<Eigen::Index>(space.layers[static_cast<std::size_t>(j)]);
-      z[j] = (row(layer) - space.mean[j]) / space.scale[j];
-    }
-    return z;
-  };
   Eigen::MatrixXd standardised(complete.rows(), used);
   for (Eigen::Index r = 0; r < complete.rows(); ++r)
-    standardised.row(r) = standardise([&](Eigen::Index l) { return complete(r, l); }).transpose();
+    standardised.row(r) = standardise(space, [&](Eigen::Index l) { return complete(r, l); }).transpose();
   const Eigen::MatrixXd scores = standardised * space.basis;
 
   const Estimate est = estimate(scores, standardised, space.basis, taxon.seed);
@@ -207,48 +264,9 @@ std::vector<Finding> Mahalanobis::judge_values(const TaxonValues& taxon) const {
   const std::size_t dims = precision.rank;
   const double cutoff = chi_square_quantile(static_cast<double>(dims), options_.quantile);
 
+  const FittedSpace fitted{space, layers, layer_precision, centre, dims, cutoff};
   std::vector<Finding> findings(rows);
-  for (std::size_t i = 0; i < rows; ++i) {
-    Finding& f = findings[i];
-    const auto row = static_cast<Eigen::Index>(i);
-    bool complete_record = true;
-    for (std::size_t j : space.layers)
-      complete_record = complete_record && std::isfinite(taxon.records(row, layers[j]));
-    if (!complete_record) {
-      f.untested_code = "missing_value:" + name();
-      continue;
-    }
-    // Deviation from the centre in standardised layer units; D² = eᵀ A e.
-    const Eigen::VectorXd z = standardise([&](Eigen::Index l) { return taxon.records(row, layers[static_cast<std::size_t>(l)]); });
-    Eigen::VectorXd e = z - centre;
-    Eigen::VectorXd lo = e, hi = e;
-    for (Eigen::Index j = 0; j < used; ++j) {
-      const Eigen::Index l = layers[space.layers[static_cast<std::size_t>(j)]];
-      const auto [a, b] = taxon.range(row, l);
-      lo[j] = (a - space.mean[j]) / space.scale[j] - centre[j];
-      hi[j] = (b - space.mean[j]) / space.scale[j] - centre[j];
-    }
-    const bool disc = (hi - lo).maxCoeff() > 0;
-    if (disc) e = closest_in_box(layer_precision, lo, hi, e);
-    const Eigen::VectorXd ae = layer_precision * e;
-    const double d2 = std::max(0.0, e.dot(ae));
-    f.tested = true;
-    f.statistic = d2;
-    f.threshold = cutoff;
-    f.severity = std::sqrt(d2 / cutoff);  // a distance ratio, comparable with |z| / cutoff
-    f.flagged = d2 > cutoff;
-    f.extras = {static_cast<double>(dims)};
-    if (f.flagged) {
-      std::vector<std::pair<double, std::string>> shares;
-      double positive = 0;
-      for (Eigen::Index j = 0; j < used; ++j) positive += std::max(0.0, e[j] * ae[j]);
-      for (Eigen::Index j = 0; j < used; ++j)
-        shares.emplace_back(positive > 0 ? std::max(0.0, e[j] * ae[j]) / positive : 0.0,
-                            taxon.layer_names[static_cast<std::size_t>(layers[space.layers[static_cast<std::size_t>(j)]])]);
-      f.reasons.push_back(describe(name(), d2, cutoff, dims, std::move(shares)) +
-                          (disc ? ", for the combination within its uncertainty disc closest to the taxon" : ""));
-    }
-  }
+  for (std::size_t i = 0; i < rows; ++i) findings[i] = judge_record(taxon, static_cast<Eigen::Index>(i), fitted);
   return findings;
 }
 

@@ -47,39 +47,35 @@ double angle_between(const Eigen::Vector3d& u, const Eigen::Vector3d& v) {
   return std::atan2(u.cross(v).norm(), u.dot(v));
 }
 
-RangeEdges::RangeEdges(const std::vector<std::vector<LonLat>>& rings) {
+// The arcs of one ring, each edge cut into pieces short enough to be treated as great-circle arcs.
+void RangeEdges::add_ring(const std::vector<LonLat>& ring, std::vector<Arc>& arcs) {
   auto add = [&](const Eigen::Vector3d& a, const Eigen::Vector3d& b) {
     Eigen::Vector3d normal = a.cross(b);
     const double n = normal.norm();
     normal = n > 1e-15 ? Eigen::Vector3d(normal / n) : Eigen::Vector3d::Zero();
-    arcs_.push_back({a, b, normal});
+    arcs.push_back({a, b, normal});
   };
-  for (const auto& ring : rings) {
-    const std::size_t n = ring.size();
-    for (std::size_t k = 0; k < n; ++k) {
-      const LonLat p = ring[k], q = ring[(k + 1) % n];
-      if (p.lon == q.lon && p.lat == q.lat) continue;  // a repeated vertex (or the closing one)
-      if (std::fabs(p.lat) >= 90 && p.lat == q.lat) continue;  // along a pole: a point, not an edge
-      const int pieces = pieces_of(p, q);
-      Eigen::Vector3d from = unit_vector(p.lon, p.lat);
-      for (int s = 1; s <= pieces; ++s) {
-        const double t = static_cast<double>(s) / pieces;
-        const Eigen::Vector3d to = s == pieces ? unit_vector(q.lon, q.lat)
-                                               : unit_vector(p.lon + t * (q.lon - p.lon), p.lat + t * (q.lat - p.lat));
-        add(from, to);
-        from = to;
-      }
+  const std::size_t n = ring.size();
+  for (std::size_t k = 0; k < n; ++k) {
+    const LonLat p = ring[k], q = ring[(k + 1) % n];
+    if (p.lon == q.lon && p.lat == q.lat) continue;  // a repeated vertex (or the closing one)
+    if (std::fabs(p.lat) >= 90 && p.lat == q.lat) continue;  // along a pole: a point, not an edge
+    const int pieces = pieces_of(p, q);
+    Eigen::Vector3d from = unit_vector(p.lon, p.lat);
+    for (int s = 1; s <= pieces; ++s) {
+      const double t = static_cast<double>(s) / pieces;
+      const Eigen::Vector3d to = s == pieces ? unit_vector(q.lon, q.lat)
+                                             : unit_vector(p.lon + t * (q.lon - p.lon), p.lat + t * (q.lat - p.lat));
+      add(from, to);
+      from = to;
     }
   }
-  for (const Arc& s : arcs_) {
-    const Eigen::Vector3d m = s.a + s.b;
-    middle_.push_back(m.norm() > 1e-15 ? Eigen::Vector3d(m.normalized()) : s.a);
-    half_.push_back(angle_between(s.a, s.b) / 2);
-  }
-  if (arcs_.empty()) return;
-  // Arcs in the order of their middles along a Z-order (Morton) curve of the unit cube, so that
-  // neighbours in the order are neighbours on the sphere; then caps bottom-up: runs of
-  // kLeafArcs arcs, then pairs of caps. One sort and O(n) work.
+}
+
+namespace {
+
+// A point of the unit sphere's position along a Z-order (Morton) curve of the unit cube.
+std::uint64_t morton_key(const Eigen::Vector3d& point) {
   auto spread = [](std::uint64_t v) {  // 21 bits to every third of 63
     v &= 0x1fffff;
     v = (v | v << 32) & 0x1f00000000ffffull;
@@ -89,13 +85,26 @@ RangeEdges::RangeEdges(const std::vector<std::vector<LonLat>>& rings) {
     v = (v | v << 2) & 0x1249249249249249ull;
     return v;
   };
-  std::vector<std::pair<std::uint64_t, std::uint32_t>> keyed(arcs_.size());
-  for (std::size_t k = 0; k < arcs_.size(); ++k) {
-    const Eigen::Vector3d q = (middle_[k].array() + 1) * 0.5 * 2097151.0;
-    keyed[k] = {spread(static_cast<std::uint64_t>(q.x())) | spread(static_cast<std::uint64_t>(q.y())) << 1 |
-                    spread(static_cast<std::uint64_t>(q.z())) << 2,
-                static_cast<std::uint32_t>(k)};
+  const Eigen::Vector3d q = (point.array() + 1) * 0.5 * 2097151.0;
+  return spread(static_cast<std::uint64_t>(q.x())) | spread(static_cast<std::uint64_t>(q.y())) << 1 |
+         spread(static_cast<std::uint64_t>(q.z())) << 2;
+}
+
+}  // namespace
+
+RangeEdges::RangeEdges(const std::vector<std::vector<LonLat>>& rings) {
+  for (const auto& ring : rings) add_ring(ring, arcs_);
+  for (const Arc& s : arcs_) {
+    const Eigen::Vector3d m = s.a + s.b;
+    middle_.push_back(m.norm() > 1e-15 ? Eigen::Vector3d(m.normalized()) : s.a);
+    half_.push_back(angle_between(s.a, s.b) / 2);
   }
+  if (arcs_.empty()) return;
+  // Arcs in the order of their middles along a Z-order (Morton) curve of the unit cube, so that
+  // neighbours in the order are neighbours on the sphere; then caps bottom-up: runs of
+  // kLeafArcs arcs, then pairs of caps. One sort and O(n) work.
+  std::vector<std::pair<std::uint64_t, std::uint32_t>> keyed(arcs_.size());
+  for (std::size_t k = 0; k < arcs_.size(); ++k) keyed[k] = {morton_key(middle_[k]), static_cast<std::uint32_t>(k)};
   std::sort(keyed.begin(), keyed.end());  // ties by index: the same order on every machine
   std::vector<Arc> arcs;
   std::vector<Eigen::Vector3d> middle;

@@ -30,6 +30,57 @@ std::uint8_t Populations::population_of(const Eigen::RowVectorXd& values) const 
   return std::fabs(p - mean[1]) / sd[1] < std::fabs(p - mean[0]) / sd[0] ? 1 : 0;
 }
 
+namespace {
+
+// Lloyd's algorithm for k = 2 from the row farthest from the origin (the median) and the row
+// farthest from that one; false when a cluster empties.
+bool two_means(const Eigen::MatrixXd& z, std::vector<std::uint8_t>& label, Eigen::RowVectorXd (&c)[2]) {
+  const Eigen::Index n = z.rows(), p = z.cols();
+  Eigen::Index a = 0, b = 0;
+  z.rowwise().squaredNorm().maxCoeff(&a);  // farthest from the median (the origin)
+  (z.rowwise() - z.row(a)).rowwise().squaredNorm().maxCoeff(&b);
+  c[0] = z.row(a), c[1] = z.row(b);
+  label.assign(static_cast<std::size_t>(n), 0);
+  for (int iteration = 0; iteration < 100; ++iteration) {
+    bool changed = false;
+    for (Eigen::Index i = 0; i < n; ++i) {
+      const std::uint8_t k = (z.row(i) - c[1]).squaredNorm() < (z.row(i) - c[0]).squaredNorm() ? 1 : 0;
+      changed = changed || k != label[static_cast<std::size_t>(i)];
+      label[static_cast<std::size_t>(i)] = k;
+    }
+    Eigen::RowVectorXd sum[2] = {Eigen::RowVectorXd::Zero(p), Eigen::RowVectorXd::Zero(p)};
+    Eigen::Index count[2] = {0, 0};
+    for (Eigen::Index i = 0; i < n; ++i) sum[label[static_cast<std::size_t>(i)]] += z.row(i), ++count[label[static_cast<std::size_t>(i)]];
+    if (count[0] == 0 || count[1] == 0) return false;
+    c[0] = sum[0] / static_cast<double>(count[0]), c[1] = sum[1] / static_cast<double>(count[1]);
+    if (!changed && iteration > 0) break;
+  }
+  return true;
+}
+
+// Whether the kernel density of the projected rows (Silverman's bandwidth from the pooled SD)
+// falls between the two means to at most `max_valley` of the lower of its two peaks.
+bool has_valley(const Eigen::VectorXd& along, const double (&mean)[2], double pooled, double max_valley) {
+  const Eigen::Index n = along.size();
+  const double h = std::max(0.9 * pooled * std::pow(static_cast<double>(n), -0.2), 1e-9);
+  auto density = [&](double x) {
+    double d = 0;
+    for (Eigen::Index i = 0; i < n; ++i) d += std::exp(-0.5 * (x - along[i]) * (x - along[i]) / (h * h));
+    return d;
+  };
+  const double lo = std::min(mean[0], mean[1]), hi = std::max(mean[0], mean[1]);
+  constexpr int kSteps = 48;
+  std::vector<double> grid(kSteps + 1);
+  for (int g = 0; g <= kSteps; ++g) grid[static_cast<std::size_t>(g)] = density(lo + (hi - lo) * g / kSteps);
+  // peaks: the highest density on each half of the segment; valley: the lowest between them
+  const auto middle = grid.begin() + kSteps / 2;
+  const auto left_peak = std::max_element(grid.begin(), middle + 1), right_peak = std::max_element(middle, grid.end());
+  const double valley = *std::min_element(left_peak, right_peak + 1);
+  return !(valley > max_valley * std::min(*left_peak, *right_peak));
+}
+
+}  // namespace
+
 Populations find_populations(const Eigen::MatrixXd& reference, const PopulationOptions& o) {
   Populations none;
   if (!o.enabled || reference.rows() < static_cast<Eigen::Index>(2 * o.min_rows)) return none;
@@ -64,25 +115,9 @@ Populations find_populations(const Eigen::MatrixXd& reference, const PopulationO
     for (Eigen::Index j = 0; j < p; ++j) z(i, j) = (reference(rows[static_cast<std::size_t>(i)], s.layers[static_cast<std::size_t>(j)]) - s.centre[j]) / s.scale[j];
 
   // k-means, k = 2
-  Eigen::Index a = 0, b = 0;
-  z.rowwise().squaredNorm().maxCoeff(&a);  // farthest from the median (the origin)
-  (z.rowwise() - z.row(a)).rowwise().squaredNorm().maxCoeff(&b);
-  Eigen::RowVectorXd c[2] = {z.row(a), z.row(b)};
-  std::vector<std::uint8_t> label(static_cast<std::size_t>(n), 0);
-  for (int iteration = 0; iteration < 100; ++iteration) {
-    bool changed = false;
-    for (Eigen::Index i = 0; i < n; ++i) {
-      const std::uint8_t k = (z.row(i) - c[1]).squaredNorm() < (z.row(i) - c[0]).squaredNorm() ? 1 : 0;
-      changed = changed || k != label[static_cast<std::size_t>(i)];
-      label[static_cast<std::size_t>(i)] = k;
-    }
-    Eigen::RowVectorXd sum[2] = {Eigen::RowVectorXd::Zero(p), Eigen::RowVectorXd::Zero(p)};
-    Eigen::Index count[2] = {0, 0};
-    for (Eigen::Index i = 0; i < n; ++i) sum[label[static_cast<std::size_t>(i)]] += z.row(i), ++count[label[static_cast<std::size_t>(i)]];
-    if (count[0] == 0 || count[1] == 0) return none;
-    c[0] = sum[0] / static_cast<double>(count[0]), c[1] = sum[1] / static_cast<double>(count[1]);
-    if (!changed && iteration > 0) break;
-  }
+  std::vector<std::uint8_t> label;
+  Eigen::RowVectorXd c[2];
+  if (!two_means(z, label, c)) return none;
 
   // 2. sizes, then a valley along the line through the centres
   Eigen::Index count[2] = {0, 0};
@@ -102,21 +137,7 @@ Populations find_populations(const Eigen::MatrixXd& reference, const PopulationO
   }
   for (int k = 0; k < 2; ++k) s.sd[k] = std::max(std::sqrt(squares[k] / static_cast<double>(count[k] - 1)), 1e-9);
   const double pooled = std::sqrt((squares[0] + squares[1]) / static_cast<double>(n - 2));
-  const double h = std::max(0.9 * pooled * std::pow(static_cast<double>(n), -0.2), 1e-9);
-  auto density = [&](double x) {
-    double d = 0;
-    for (Eigen::Index i = 0; i < n; ++i) d += std::exp(-0.5 * (x - along[i]) * (x - along[i]) / (h * h));
-    return d;
-  };
-  const double lo = std::min(s.mean[0], s.mean[1]), hi = std::max(s.mean[0], s.mean[1]);
-  constexpr int kSteps = 48;
-  std::vector<double> grid(kSteps + 1);
-  for (int g = 0; g <= kSteps; ++g) grid[static_cast<std::size_t>(g)] = density(lo + (hi - lo) * g / kSteps);
-  // peaks: the highest density on each half of the segment; valley: the lowest between them
-  const auto middle = grid.begin() + kSteps / 2;
-  const auto left_peak = std::max_element(grid.begin(), middle + 1), right_peak = std::max_element(middle, grid.end());
-  const double valley = *std::min_element(left_peak, right_peak + 1);
-  if (valley > o.max_valley * std::min(*left_peak, *right_peak)) return none;
+  if (!has_valley(along, s.mean, pooled, o.max_valley)) return none;
 
   // every row, reference or not, is placed by the same rule (step 3)
   s.split = true;

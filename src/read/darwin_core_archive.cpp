@@ -58,6 +58,34 @@ std::string term_name(const std::string& uri) {
   return cut == std::string::npos ? uri : uri.substr(cut + 1);
 }
 
+// The core's columns by their terms (a field with only a default becomes a column holding it for
+// every record); the id column is named `id` unless a term names it; unnamed ones column_N.
+void read_core_fields(CPLXMLNode* core, const std::string& meta_name, ArchiveCore& c) {
+  int id_index = -1;
+  for (CPLXMLNode* n = core->psChild; n; n = n->psNext) {
+    if (n->eType != CXT_Element) continue;
+    const std::string tag = n->pszValue;
+    if (tag == "id" || tag == "coreid") id_index = std::atoi(CPLGetXMLValue(n, "index", "-1"));
+    if (tag != "field") continue;
+    const std::string term = term_name(CPLGetXMLValue(n, "term", ""));
+    const char* index = CPLGetXMLValue(n, "index", nullptr);
+    if (term.empty()) throw InputError(meta_name, "a <field> without a term", "check the archive");
+    if (!index) {
+      c.defaults.emplace_back(term, CPLGetXMLValue(n, "default", ""));
+      continue;
+    }
+    const auto i = static_cast<std::size_t>(std::atoi(index));
+    if (c.columns.size() <= i) c.columns.resize(i + 1);
+    c.columns[i] = term;
+  }
+  if (id_index >= 0) {
+    if (c.columns.size() <= static_cast<std::size_t>(id_index)) c.columns.resize(static_cast<std::size_t>(id_index) + 1);
+    if (c.columns[static_cast<std::size_t>(id_index)].empty()) c.columns[static_cast<std::size_t>(id_index)] = "id";
+  }
+  for (std::size_t i = 0; i < c.columns.size(); ++i)
+    if (c.columns[i].empty()) c.columns[i] = "column_" + std::to_string(i);
+}
+
 }  // namespace
 
 std::optional<ArchiveCore> read_archive_meta(const std::string& path) {
@@ -118,29 +146,7 @@ std::optional<ArchiveCore> read_archive_meta(const std::string& path) {
   if (encoding != "UTF-8" && encoding != "utf-8" && encoding != "UTF8")
     c.notes.push_back(c.name + ": meta.xml declares the encoding " + encoding +
                       "; bytes that are not UTF-8 are read as Latin-1 (latin1_converted)");
-  int id_index = -1;
-  for (CPLXMLNode* n = core->psChild; n; n = n->psNext) {
-    if (n->eType != CXT_Element) continue;
-    const std::string tag = n->pszValue;
-    if (tag == "id" || tag == "coreid") id_index = std::atoi(CPLGetXMLValue(n, "index", "-1"));
-    if (tag != "field") continue;
-    const std::string term = term_name(CPLGetXMLValue(n, "term", ""));
-    const char* index = CPLGetXMLValue(n, "index", nullptr);
-    if (term.empty()) throw InputError(meta_name, "a <field> without a term", "check the archive");
-    if (!index) {
-      c.defaults.emplace_back(term, CPLGetXMLValue(n, "default", ""));
-      continue;
-    }
-    const auto i = static_cast<std::size_t>(std::atoi(index));
-    if (c.columns.size() <= i) c.columns.resize(i + 1);
-    c.columns[i] = term;
-  }
-  if (id_index >= 0) {
-    if (c.columns.size() <= static_cast<std::size_t>(id_index)) c.columns.resize(static_cast<std::size_t>(id_index) + 1);
-    if (c.columns[static_cast<std::size_t>(id_index)].empty()) c.columns[static_cast<std::size_t>(id_index)] = "id";
-  }
-  for (std::size_t i = 0; i < c.columns.size(); ++i)
-    if (c.columns[i].empty()) c.columns[i] = "column_" + std::to_string(i);
+  read_core_fields(core, meta_name, c);
   if (c.columns.empty()) throw InputError(meta_name, "the core declares no fields", "check the archive");
   std::size_t extensions = 0;
   for (CPLXMLNode* n = archive->psChild; n; n = n->psNext)

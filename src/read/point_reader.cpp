@@ -31,23 +31,34 @@ std::string extension(const std::string& path) {
 }
 
 // `archive`: the text is a Darwin Core Archive's core, laid out as its meta.xml says.
+// The delimiter: the archive's, the option's, tab for .tsv/.tab, else guessed from the header line.
+char choose_delimiter(std::istream& in, const std::string& path, const ReaderOptions& o, const ArchiveCore* archive) {
+  const char delimiter = archive ? archive->delimiter : o.delimiter;
+  if (delimiter) return delimiter;
+  const auto ext = extension(path);
+  if (ext == "tsv" || ext == "tab") return '\t';
+  std::string first;  // the header line, ended by LF, CR or CRLF
+  for (int c = in.get(); c != std::char_traits<char>::eof() && c != '\n' && c != '\r' && first.size() < (1u << 20);
+       c = in.get())
+    first += static_cast<char>(c);
+  in.clear();
+  in.seekg(0);
+  return sniff_delimiter(first);
+}
+
+// Records that span several lines (a quoted field holding a line break), said in one warning.
+std::string spanning_warning(const std::string& path, std::size_t spans, const std::vector<std::string>& spanning) {
+  std::string lines;
+  for (const auto& l : spanning) lines += (lines.empty() ? "" : ", ") + l;
+  return path + ": " + std::to_string(spans) + " record(s) span several lines, a quoted field holding a " +
+         "line break (lines " + lines + (spans > spanning.size() ? ", ..." : "") +
+         "; code spans_lines); if the file is a portal export or a Darwin Core Archive, quotes are "
+         "plain characters there: read it with --quoting literal";
+}
+
 PointTable read_delimited(std::istream& in, const std::string& path, const ReaderOptions& o,
                           const ArchiveCore* archive = nullptr) {
-  char delimiter = archive ? archive->delimiter : o.delimiter;
-  if (!delimiter) {
-    auto ext = extension(path);
-    if (ext == "tsv" || ext == "tab") {
-      delimiter = '\t';
-    } else {
-      std::string first;  // the header line, ended by LF, CR or CRLF
-      for (int c = in.get(); c != std::char_traits<char>::eof() && c != '\n' && c != '\r' && first.size() < (1u << 20);
-           c = in.get())
-        first += static_cast<char>(c);
-      delimiter = sniff_delimiter(first);
-      in.clear();
-      in.seekg(0);
-    }
-  }
+  const char delimiter = choose_delimiter(in, path, o, archive);
   PointTable table;
   table.source = path;
   // no --quoting: tab-separated text literally, other delimiters (and archives that say so) by RFC 4180
@@ -110,14 +121,7 @@ PointTable read_delimited(std::istream& in, const std::string& path, const Reade
     table.warnings.push_back(path + ": " + std::to_string(builder.metre_like()) + " of " + std::to_string(table.records.size()) +
                              " records have coordinates out of range for degrees that look like metres: if the file "
                              "holds projected coordinates, give their CRS with --points-crs (e.g. EPSG:32631)");
-  if (spans > 0) {
-    std::string lines;
-    for (const auto& l : spanning) lines += (lines.empty() ? "" : ", ") + l;
-    table.warnings.push_back(path + ": " + std::to_string(spans) + " record(s) span several lines, a quoted field holding a " +
-                             "line break (lines " + lines + (spans > spanning.size() ? ", ..." : "") +
-                             "; code spans_lines); if the file is a portal export or a Darwin Core Archive, quotes are "
-                             "plain characters there: read it with --quoting literal");
-  }
+  if (spans > 0) table.warnings.push_back(spanning_warning(path, spans, spanning));
   return table;
 }
 

@@ -59,6 +59,57 @@ CellRange disc_cells(const detail::LayerAccess& layer, OGRCoordinateTransformati
           std::min(info.height - 1, clip(std::floor(r1), info.height) + 1)};
 }
 
+// The values of a layer over one disc: every cell whose centre lies within the radius, plus the
+// cell holding the point (a disc smaller than a cell still holds the point's value).
+struct DiscStats {
+  double lo = std::numeric_limits<double>::infinity(), hi = -std::numeric_limits<double>::infinity(), sum = 0;
+  std::size_t count = 0;
+};
+
+DiscStats disc_values(detail::LayerAccess& layer, OGRCoordinateTransformation* forward,
+                      OGRCoordinateTransformation* inverse, double x, double y, double lon, double lat, double radius_m) {
+  const LayerInfo& info = layer.info();
+  const auto& gt = info.geotransform;
+  double px, py, shift = 0;
+  const bool inside = layer.pixel(x, y, px, py, &shift);
+  const CellRange range = disc_cells(layer, forward, lon, lat, radius_m, shift);
+  // Cell centres → lon/lat, then keep those within the radius.
+  std::vector<int> cols, rows;
+  std::vector<double> cx, cy;
+  for (int r = range.row0; !range.empty() && r <= range.row1; ++r)
+    for (int c = range.col0; c <= range.col1; ++c) {
+      cols.push_back(c);
+      rows.push_back(r);
+      cx.push_back(gt[0] + (c + 0.5) * gt[1]);
+      cy.push_back(gt[3] + (r + 0.5) * gt[5]);
+    }
+  std::vector<int> ok(cx.size(), 1);
+  if (inverse && !cx.empty()) inverse->Transform(cx.size(), cx.data(), cy.data(), nullptr, ok.data());
+  const int home_col = inside ? static_cast<int>(std::floor(px)) : -1, home_row = inside ? static_cast<int>(std::floor(py)) : -1;
+  // Group kept cells by block so each block is fetched once per disc.
+  std::map<std::pair<int, int>, std::vector<std::pair<int, int>>> by_block;
+  bool home_kept = false;
+  for (std::size_t c = 0; c < cx.size(); ++c) {
+    const bool home = cols[c] == home_col && rows[c] == home_row;
+    if (!home && !(ok[c] && great_circle_m(lon, lat, cx[c] - shift, cy[c]) <= radius_m)) continue;
+    home_kept = home_kept || home;
+    by_block[{cols[c] / info.block_width, rows[c] / info.block_height}].emplace_back(cols[c], rows[c]);
+  }
+  if (inside && !home_kept)
+    by_block[{home_col / info.block_width, home_row / info.block_height}].emplace_back(home_col, home_row);
+  DiscStats d;
+  for (const auto& [b, cells] : by_block) {
+    const auto block = layer.block(b.first, b.second);
+    for (const auto& [c, r] : cells) {
+      const double raw = block->at(c - b.first * info.block_width, r - b.second * info.block_height);
+      if (layer.missing(raw)) continue;
+      const double v = layer.value(raw);
+      d.lo = std::min(d.lo, v), d.hi = std::max(d.hi, v), d.sum += v, ++d.count;
+    }
+  }
+  return d;
+}
+
 }  // namespace
 
 DiscSamples RasterStack::sample_discs(const std::vector<double>& longitude, const std::vector<double>& latitude,
@@ -77,7 +128,6 @@ DiscSamples RasterStack::sample_discs(const std::vector<double>& longitude, cons
   for (std::size_t l = 0; l < L; ++l) {
     detail::LayerAccess layer(layers_[l], l, cache_, impl_->handles);
     const LayerInfo& info = layer.info();
-    const auto& gt = info.geotransform;
     std::vector<double> x(longitude), y(latitude);
     layer.to_layer(x, y);
     // Visit records in the block order of their points, so that neighbouring discs share blocks
@@ -102,44 +152,9 @@ DiscSamples RasterStack::sample_discs(const std::vector<double>& longitude, cons
       for (std::ptrdiff_t k = 0; k < static_cast<std::ptrdiff_t>(order.size()); ++k) {
         const std::size_t i = order[static_cast<std::size_t>(k)].second;
         try {
-          double px, py, shift = 0;
-          const bool inside = layer.pixel(x[i], y[i], px, py, &shift);
-          const CellRange range = disc_cells(layer, forward.get(), longitude[i], latitude[i], radius_m[i], shift);
-          // Cell centres → lon/lat, then keep those within the radius.
-          std::vector<int> cols, rows;
-          std::vector<double> cx, cy;
-          for (int r = range.row0; !range.empty() && r <= range.row1; ++r)
-            for (int c = range.col0; c <= range.col1; ++c) {
-              cols.push_back(c);
-              rows.push_back(r);
-              cx.push_back(gt[0] + (c + 0.5) * gt[1]);
-              cy.push_back(gt[3] + (r + 0.5) * gt[5]);
-            }
-          std::vector<int> ok(cx.size(), 1);
-          if (inverse && !cx.empty()) inverse->Transform(cx.size(), cx.data(), cy.data(), nullptr, ok.data());
-          const int home_col = inside ? static_cast<int>(std::floor(px)) : -1, home_row = inside ? static_cast<int>(std::floor(py)) : -1;
-          // Group kept cells by block so each block is fetched once per disc.
-          std::map<std::pair<int, int>, std::vector<std::pair<int, int>>> by_block;
-          bool home_kept = false;
-          for (std::size_t c = 0; c < cx.size(); ++c) {
-            const bool home = cols[c] == home_col && rows[c] == home_row;
-            if (!home && !(ok[c] && great_circle_m(longitude[i], latitude[i], cx[c] - shift, cy[c]) <= radius_m[i])) continue;
-            home_kept = home_kept || home;
-            by_block[{cols[c] / info.block_width, rows[c] / info.block_height}].emplace_back(cols[c], rows[c]);
-          }
-          if (inside && !home_kept)
-            by_block[{home_col / info.block_width, home_row / info.block_height}].emplace_back(home_col, home_row);
-          double lo = std::numeric_limits<double>::infinity(), hi = -lo, sum = 0;
-          std::size_t count = 0;
-          for (const auto& [b, cells] : by_block) {
-            const auto block = layer.block(b.first, b.second);
-            for (const auto& [c, r] : cells) {
-              const double raw = block->at(c - b.first * info.block_width, r - b.second * info.block_height);
-              if (layer.missing(raw)) continue;
-              const double v = layer.value(raw);
-              lo = std::min(lo, v), hi = std::max(hi, v), sum += v, ++count;
-            }
-          }
+          const DiscStats d = disc_values(layer, forward.get(), inverse.get(), x[i], y[i], longitude[i], latitude[i], radius_m[i]);
+          const double lo = d.lo, hi = d.hi, sum = d.sum;
+          const std::size_t count = d.count;
           if (count) {
             const auto row = static_cast<Eigen::Index>(i), col = static_cast<Eigen::Index>(l);
             out.min(row, col) = lo;

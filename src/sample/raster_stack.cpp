@@ -151,6 +151,43 @@ std::uint64_t mix(std::uint64_t h, std::uint64_t v) {
   return h;
 }
 
+// The points located[from, to) of one block of layer l: the block read once, each point's cell
+// looked up there (bilinear neighbours across its edge come through the cache).
+void sample_group(detail::LayerAccess& layer, const std::vector<Location>& located, std::size_t from, std::size_t to,
+                  std::size_t l, Interpolation method, Samples& out) {
+  const LayerInfo& info = layer.info();
+  const Location& first = located[from];
+  const int hbx = first.col / info.block_width, hby = first.row / info.block_height;
+  const auto home = layer.block(hbx, hby);
+  auto raw = [&](int col, int row) {
+    const int bx = col / info.block_width, by = row / info.block_height;
+    if (bx == hbx && by == hby) return home->at(col - bx * info.block_width, row - by * info.block_height);
+    return layer.raw(col, row);
+  };
+  for (std::size_t k = from; k < to; ++k) {
+    const Location& p = located[k];
+    const double centre = raw(p.col, p.row);
+    if (layer.missing(centre)) {
+      out.status[p.record * out.layer_count + l] = CellStatus::nodata;
+      continue;
+    }
+    double v = layer.value(centre, method == Interpolation::nearest);
+    if (method == Interpolation::bilinear) {
+      const double fx = p.px - 0.5, fy = p.py - 0.5;
+      const int c0 = static_cast<int>(std::floor(fx)), r0 = static_cast<int>(std::floor(fy));
+      const double tx = fx - c0, ty = fy - r0;
+      if (c0 >= 0 && r0 >= 0 && c0 + 1 < info.width && r0 + 1 < info.height) {
+        const double v00 = raw(c0, r0), v10 = raw(c0 + 1, r0), v01 = raw(c0, r0 + 1), v11 = raw(c0 + 1, r0 + 1);
+        if (!layer.missing(v00) && !layer.missing(v10) && !layer.missing(v01) && !layer.missing(v11))
+          v = layer.value((1 - tx) * (1 - ty) * v00 + tx * (1 - ty) * v10 + (1 - tx) * ty * v01 + tx * ty * v11,
+                          false);
+      }
+    }
+    out.status[p.record * out.layer_count + l] = CellStatus::ok;
+    out.values.set(p.record, static_cast<Eigen::Index>(l), v);
+  }
+}
+
 }  // namespace
 
 std::vector<LayerSpec> expand_layer_arguments(const std::vector<std::string>& arguments) {
@@ -231,36 +268,8 @@ Samples RasterStack::sample(const std::vector<double>& longitude, const std::vec
 #pragma omp parallel for schedule(dynamic, 1)
     for (std::ptrdiff_t g = 0; g < groups; ++g) {
       try {
-        const Location& first = located[group_start[static_cast<std::size_t>(g)]];
-        const int hbx = first.col / info.block_width, hby = first.row / info.block_height;
-        const auto home = layer.block(hbx, hby);
-        auto raw = [&](int col, int row) {
-          const int bx = col / info.block_width, by = row / info.block_height;
-          if (bx == hbx && by == hby) return home->at(col - bx * info.block_width, row - by * info.block_height);
-          return layer.raw(col, row);
-        };
-        for (std::size_t k = group_start[static_cast<std::size_t>(g)]; k < group_start[static_cast<std::size_t>(g) + 1]; ++k) {
-          const Location& p = located[k];
-          const double centre = raw(p.col, p.row);
-          if (layer.missing(centre)) {
-            out.status[p.record * L + l] = CellStatus::nodata;
-            continue;
-          }
-          double v = layer.value(centre, method == Interpolation::nearest);
-          if (method == Interpolation::bilinear) {
-            const double fx = p.px - 0.5, fy = p.py - 0.5;
-            const int c0 = static_cast<int>(std::floor(fx)), r0 = static_cast<int>(std::floor(fy));
-            const double tx = fx - c0, ty = fy - r0;
-            if (c0 >= 0 && r0 >= 0 && c0 + 1 < info.width && r0 + 1 < info.height) {
-              const double v00 = raw(c0, r0), v10 = raw(c0 + 1, r0), v01 = raw(c0, r0 + 1), v11 = raw(c0 + 1, r0 + 1);
-              if (!layer.missing(v00) && !layer.missing(v10) && !layer.missing(v01) && !layer.missing(v11))
-                v = layer.value((1 - tx) * (1 - ty) * v00 + tx * (1 - ty) * v10 + (1 - tx) * ty * v01 + tx * ty * v11,
-                                false);
-            }
-          }
-          out.status[p.record * L + l] = CellStatus::ok;
-          out.values.set(p.record, static_cast<Eigen::Index>(l), v);
-        }
+        sample_group(layer, located, group_start[static_cast<std::size_t>(g)], group_start[static_cast<std::size_t>(g) + 1], l,
+                     method, out);
         if (progress_) progress_->advance(group_start[static_cast<std::size_t>(g) + 1] - group_start[static_cast<std::size_t>(g)]);
       } catch (...) {
         errors[static_cast<std::size_t>(g)] = std::current_exception();

@@ -44,7 +44,9 @@ class Mahalanobis : public Detector {
   const MahalanobisOptions& options() const { return options_; }
 
  private:
+  struct FittedSpace;
   std::vector<Finding> judge_values(const TaxonValues& taxon) const;
+  Finding judge_record(const TaxonValues& taxon, Eigen::Index row, const FittedSpace& fitted) const;
   MahalanobisOptions options_;
 };
 

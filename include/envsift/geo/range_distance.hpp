@@ -31,6 +31,7 @@ class RangeEdges {
   struct Arc {
     Eigen::Vector3d a, b, normal;  // unit vectors; normal = a × b normalised (zero: a point)
   };
+  static void add_ring(const std::vector<LonLat>& ring, std::vector<Arc>& arcs);
   struct Cap {
     Eigen::Vector3d centre;
     double radius = 0;               // radians: every point of its arcs lies within it

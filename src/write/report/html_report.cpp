@@ -206,20 +206,11 @@ std::string HtmlReport::section(std::size_t index, const TaxonPicture& t, std::s
   return s;
 }
 
-void HtmlReport::finish(const ReportOverview& o) {
-  std::set<std::size_t> drawn;
-  for (const auto& [index, e] : taxa_)
-    if (e.section) drawn.insert(index);
-  AtomicFile& out = *out_;
-  std::string s = kHead;
-  s += "<title>" + escape(o.title) + "</title>" + kStyle + "</head><body>";
-  s += "<h1>" + escape(o.title) + "</h1>";
-  s += "<nav><a href=\"#overview\">Run</a><a href=\"#suspects\">Top suspects</a><a href=\"#index\">Taxa</a>"
-       "<a href=\"#manifest\">Manifest</a></nav>";
-  s += "<p class=\"caution\"><b>Flags are reasons to look, not proof of error.</b> A suspect record may be a "
-       "georeferencing slip, a mislabelled specimen, a vagrant, or a genuine record at the edge of its taxon's "
-       "range. Review each one before acting: removing records changes model results, and removing true edge "
-       "records narrows the niche a model learns.</p>";
+namespace {
+
+// The run: inputs, tests, records read / scored / flagged / not scored, codes and warnings.
+std::string overview_html(const ReportOverview& o) {
+  std::string s;
   s += "<h2 id=\"overview\">Run</h2><table>";
   for (const auto& [what, value] : o.inputs) s += "<tr><th>" + escape(what) + "</th>" + cell(value) + "</tr>";
   s += "</table><p>Tests:</p><ul>";
@@ -258,7 +249,12 @@ void HtmlReport::finish(const ReportOverview& o) {
     for (const auto& w : o.warnings) s += "<li>" + escape(w) + "</li>";
     s += "</ul></details>";
   }
+  return s;
+}
 
+// The worst suspects across all taxa, each linked to its taxon's section when one is drawn.
+std::string top_suspects_html(const ReportOverview& o, const std::set<std::size_t>& drawn) {
+  std::string s;
   s += "<h2 id=\"suspects\">Top suspects</h2>";
   if (o.top.empty()) s += "<p>No record was flagged.</p>";
   else {
@@ -272,6 +268,27 @@ void HtmlReport::finish(const ReportOverview& o) {
     }
     s += "</table>";
   }
+  return s;
+}
+
+}  // namespace
+
+void HtmlReport::finish(const ReportOverview& o) {
+  std::set<std::size_t> drawn;
+  for (const auto& [index, e] : taxa_)
+    if (e.section) drawn.insert(index);
+  AtomicFile& out = *out_;
+  std::string s = kHead;
+  s += "<title>" + escape(o.title) + "</title>" + kStyle + "</head><body>";
+  s += "<h1>" + escape(o.title) + "</h1>";
+  s += "<nav><a href=\"#overview\">Run</a><a href=\"#suspects\">Top suspects</a><a href=\"#index\">Taxa</a>"
+       "<a href=\"#manifest\">Manifest</a></nav>";
+  s += "<p class=\"caution\"><b>Flags are reasons to look, not proof of error.</b> A suspect record may be a "
+       "georeferencing slip, a mislabelled specimen, a vagrant, or a genuine record at the edge of its taxon's "
+       "range. Review each one before acting: removing records changes model results, and removing true edge "
+       "records narrows the niche a model learns.</p>";
+  s += overview_html(o);
+  s += top_suspects_html(o, drawn);
   s += "<h2 id=\"index\">Taxa</h2>";
   if (drawn.size() < taxa_.size())
     s += "<p class=\"note\">Sections are drawn for the " + std::to_string(drawn.size()) + " taxa whose worst suspect "
