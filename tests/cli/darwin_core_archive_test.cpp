@@ -100,7 +100,7 @@ TEST(DarwinCoreArchive, ACoreOutsideTheArchiveIsRefused) {
   const std::string folder = dir + "/folder", out = dir + "/o.csv";
   VSIMkdir(folder.c_str(), 0755);
   VSIMkdir((folder + "/data").c_str(), 0755);
-  const std::string core = "id\tname\tlon\tlat\tunc\telev\tloc\nQM-0001\tOrophila nivicola\t0.47831\t0.6708\t\t\t\n";
+  const std::string core = "id\tname\tlon\tlat\tunc\telev\tloc\nQM-0001\tOxmontia nivicola\t0.47831\t0.6708\t\t\t\n";
   write_member(folder + "/data/occurrence.txt", core);
   write_member(dir + "/outside.txt", core);
   ASSERT_EQ(::symlink((dir + "/outside.txt").c_str(), (folder + "/linked.txt").c_str()), 0);

@@ -93,7 +93,7 @@ TEST(OutputRegistry, EveryOutputOpensFinishesAndCommitsOnAnEmptyRun) {
     const std::string path = dir + "/" + e.name + extension;
     auto sink = e.make(path);
     ASSERT_TRUE(sink);
-    const RunContext run{s.outputs, table, &tests, &s.tests, {s.input.points, {}, s.input.reader.columns.id}, nullptr,
+    const RunContext run{s.outputs, table, &tests, &s.tests, {s.input.points, {}, s.input.reader.columns.id, false, "", ""}, nullptr,
                          {"status", "rank", "score", "flags", "reasons"}, {}};
     sink->begin(run);
     RunSummary summary;

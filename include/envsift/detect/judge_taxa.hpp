@@ -10,6 +10,7 @@
 #include <Eigen/Core>
 
 #include "envsift/detect/detector.hpp"
+#include "envsift/detect/judged_taxon.hpp"
 #include "envsift/group/populations.hpp"
 #include "envsift/group/taxon_groups.hpp"
 #include "envsift/value_table.hpp"
@@ -43,13 +44,6 @@ struct JudgingInput {
   std::function<std::uint64_t(const TaxonGroup&)> landscape_key = {};
 };
 
-struct JudgedTaxon {
-  std::size_t index = 0;               // position among the taxa, sorted by name
-  bool two_populations = false;        // judged as two populations
-  std::string taxon;
-  std::vector<std::size_t> records;    // ascending
-  std::vector<std::size_t> reference;  // the records its statistics were estimated from
-};
 
 // Receives each taxon's findings as soon as they are known — `findings[t][r]` is test t's
 // finding for the taxon's r-th record — so that nothing per record and test need be kept for the

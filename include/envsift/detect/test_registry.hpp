@@ -13,8 +13,7 @@
 #include <string>
 #include <vector>
 
-#include "envsift/detect/detector.hpp"
-#include "envsift/detect/record_check.hpp"
+#include "envsift/detect/active_tests.hpp"
 #include "envsift/detect/test_settings.hpp"
 #include "envsift/option_spec.hpp"
 #include "envsift/sample/landscape_sample.hpp"
@@ -77,17 +76,6 @@ std::vector<std::string> default_test_names();
 // --tests and the options shared by several tests, then every entry's own options.
 const std::vector<TestOption>& test_options();
 
-// The tests a run uses, built from the settings, in registry order: detectors judge taxa,
-// checks judge records; `entries` and `names()` cover both, detectors first.
-struct ActiveTests {
-  std::vector<std::unique_ptr<Detector>> detectors;
-  std::vector<std::unique_ptr<RecordCheck>> checks;
-  std::vector<const TestEntry*> entries;
-  std::vector<std::string> names() const;
-  std::vector<std::vector<std::string>> extra_columns() const;  // per entry
-  // What the active tests need from the run (the first entry that names one).
-  std::optional<LandscapeOptions> landscape(const TestSettings& settings) const;
-};
 ActiveTests activate_tests(const TestSettings& settings, const TestContext& context);
 
 // The elevation layer some registered test is set to use ("" = none).

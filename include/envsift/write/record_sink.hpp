@@ -9,8 +9,9 @@
 #include <string>
 #include <vector>
 
-#include "envsift/detect/judge_taxa.hpp"
-#include "envsift/detect/test_registry.hpp"
+#include "envsift/detect/active_tests.hpp"
+#include "envsift/detect/judged_taxon.hpp"
+#include "envsift/detect/test_settings.hpp"
 #include "envsift/review/decisions.hpp"
 #include "envsift/run_summary.hpp"
 #include "envsift/score/scoring.hpp"

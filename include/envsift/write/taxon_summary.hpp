@@ -7,7 +7,7 @@
 #include <string>
 #include <vector>
 
-#include "envsift/detect/judge_taxa.hpp"
+#include "envsift/detect/judged_taxon.hpp"
 #include "envsift/score/scoring.hpp"
 
 namespace envsift {

@@ -6,6 +6,7 @@
 
 #include "envsift/detect/reported_elevation.hpp"
 #include "envsift/detect/robust_z.hpp"
+#include "envsift/detect/test_registry.hpp"
 #include "envsift/write/csv_writer.hpp"
 #include "envsift/write/output_registry.hpp"
 #include "envsift/write/taxon_summary.hpp"

@@ -11,6 +11,7 @@
 #include <mutex>
 
 #include "envsift/detect/range_check.hpp"
+#include "envsift/detect/test_registry.hpp"
 #include "envsift/read/range_layer.hpp"
 #include "envsift/write/output_registry.hpp"
 #include "envsift/write/report/html_report.hpp"
