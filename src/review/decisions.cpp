@@ -3,6 +3,8 @@
 #include <algorithm>
 #include <cctype>
 #include <fstream>
+#include <iterator>
+#include <sstream>
 #include <unordered_map>
 
 #include "envsift/errors.hpp"
@@ -48,11 +50,10 @@ const char* decision_name(Decision d) {
 DecisionFile read_decision_file(const std::string& path, const std::string& id_column) {
   std::ifstream in(path, std::ios::binary);
   if (!in) throw InputError(path, "cannot open the decisions file", "check the path given to --decisions");
-  std::string header;
-  std::getline(in, header);
-  in.clear();
-  in.seekg(0);
-  CsvReader reader(in, sniff_delimiter(header), path);
+  // read whole (a reviewer's file is small) so that a pipe (--decisions <(...)) is read once, as a file
+  const std::string whole{std::istreambuf_iterator<char>(in), std::istreambuf_iterator<char>()};
+  std::istringstream text(whole);
+  CsvReader reader(text, sniff_delimiter(whole.substr(0, whole.find_first_of("\r\n"))), path);
   std::vector<std::string> columns, fields;
   std::size_t line = 0;
   if (!reader.next(columns, line))

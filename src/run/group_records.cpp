@@ -6,7 +6,7 @@
 
 namespace envsift::run {
 
-Membership group_records(RecordTable& t, const ScreenSettings& s) {
+Membership group_records(RecordTable& t, const ScreenSettings& s, const DecisionFile* decisions) {
   const std::size_t n = t.size();
   Membership m;
   m.taxon_names = s.input.single_taxon ? std::vector<std::string>{"", kSingleTaxon} : t.points.taxa;
@@ -22,14 +22,13 @@ Membership group_records(RecordTable& t, const ScreenSettings& s) {
     if (m.taxon_of[i] == 0 && t.points.records[i].has_coordinates() && m.mine[i]) t.codes.add(i, reason::taxon_missing);
     m.eligible[i] = m.mine[i] && m.taxon_of[i] != 0 && t.has_any_value(i);
   }
-  if (!s.review.decisions.empty()) {
+  if (decisions) {
     const auto& columns = t.points.columns;
     const auto id = std::find(columns.begin(), columns.end(), s.input.reader.columns.id);
     if (id == columns.end())
       throw UsageError("--decisions matches records by their ID, but the points have no '" + s.input.reader.columns.id +
                        "' column; name the ID column with --id-column");
-    m.decision_file = read_decision_file(s.review.decisions, s.input.reader.columns.id);
-    m.decisions = apply_decisions(m.decision_file, t.points, static_cast<std::size_t>(id - columns.begin()));
+    m.decisions = apply_decisions(*decisions, t.points, static_cast<std::size_t>(id - columns.begin()));
     t.warnings.insert(t.warnings.end(), m.decisions.warnings.begin(), m.decisions.warnings.end());
     m.left_out.resize(n);
     for (std::size_t i = 0; i < n; ++i) {

@@ -58,6 +58,10 @@ RunSummary run_screen(const ScreenSettings& settings, const std::vector<RecordSi
   refuse_unsafe_outputs(s, false);
   apply_process_settings(s.sampling);
   const ActiveTests tests = activate_tests(s.tests, test_context(s.input));
+  // read once, before the long part: a decisions file that cannot be used stops the run now
+  const std::optional<DecisionFile> decisions =
+      s.review.decisions.empty() ? std::nullopt
+                                 : std::optional<DecisionFile>(read_decision_file(s.review.decisions, s.input.reader.columns.id));
   const auto owned = open_outputs(s.outputs, false);
   const auto outputs = pointers(owned, extra_outputs);
   if (outputs.empty()) throw UsageError("--out is required: give the CSV file to write");
@@ -70,14 +74,14 @@ RunSummary run_screen(const ScreenSettings& settings, const std::vector<RecordSi
   summary.seconds = t.seconds;
   summary.memory = t.memory;
   clock.lap(summary.seconds, "sampling, total");
-  const run::Membership membership = run::group_records(t, s);  // 3. group by taxon
+  const run::Membership membership = run::group_records(t, s, decisions ? &*decisions : nullptr);  // 3. group by taxon
   clock.lap(summary.seconds, "group");
   const RunContext run{s.outputs,
                        t,
                        &tests,
                        &s.tests,
                        inputs_of(s),
-                       s.review.decisions.empty() ? nullptr : &membership.decision_file,
+                       decisions ? &*decisions : nullptr,
                        record_header(t, &tests, s.outputs.column_prefix, !s.review.decisions.empty()),
                        settings_as_written(all_screen_options(), s)};
   for (RecordSink* out : outputs) out->begin(run);

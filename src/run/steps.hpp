@@ -29,11 +29,12 @@ struct Membership {
   std::vector<std::uint32_t> taxon_of;   // per record
   std::vector<bool> mine;                // this shard's
   std::vector<bool> eligible;            // mine, with a taxon and a value to judge
-  DecisionFile decision_file;            // --decisions as read (its rows outlive `decisions`' pointers)
-  RecordDecisions decisions;             // --decisions: per record (empty when none given)
+  RecordDecisions decisions;             // --decisions: per record (empty when none given); its
+                                         // pointers are into the DecisionFile group_records was given
   std::vector<bool> left_out;            // judged, but out of the reference: decided `error`
 };
-Membership group_records(RecordTable& table, const ScreenSettings& settings);
+// `decisions`: --decisions as read before sampling (null: none).
+Membership group_records(RecordTable& table, const ScreenSettings& settings, const DecisionFile* decisions);
 
 // Steps 4-5: every taxon judged by every detector and every record by every check, combined
 // into verdicts (kept on disk) and scores; each judged taxon is passed to the outputs.

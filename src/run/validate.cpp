@@ -2,7 +2,6 @@
 
 #include "envsift/detect/test_registry.hpp"
 #include "envsift/errors.hpp"
-#include "envsift/review/decisions.hpp"
 #include "envsift/settings/run_options.hpp"
 
 namespace envsift {
@@ -22,8 +21,6 @@ void validate(const ScreenSettings& s) {
   if (s.outputs.shard_count > 1 && s.outputs.order == RowOrder::rank)
     throw UsageError("--shard writes rows in input order (envsift merge ranks them); drop --order rank");
   validate_tests(s.tests, test_context(s.input));
-  // a decisions file that cannot be used stops the run now, not after the points are sampled
-  if (!s.review.decisions.empty()) (void)read_decision_file(s.review.decisions, s.input.reader.columns.id);
 }
 
 TestContext test_context(const InputSettings& input) {

@@ -200,5 +200,18 @@ TEST(ReviewRounds, TheTemplateRoundTrips) {
   EXPECT_EQ((*e2)[t3.column("date")], "2026-12-03");
 }
 
+// The decisions file is read once, before sampling, so it may come through a pipe (bash's
+// process substitution, common practice for a file filtered on the way): the same output as
+// from the file itself (envsift's own contract; a file read twice, or sought back, loses a pipe).
+TEST(ReviewRounds, DecisionsThroughAPipeAreReadOnceAndAsFromTheFile) {
+  const Planted p = planted("review-pipe");
+  write_file(p.dir + "/decisions.csv", "occurrenceID,decision,note\nE1,error,confirmed\n");
+  ASSERT_EQ(run(screen(p.points, p.dir + "/file.csv", " --decisions " + p.dir + "/decisions.csv")).exit_code, 0);
+  const auto piped = run("bash -c '" + screen(p.points, p.dir + "/pipe.csv", " --decisions <(cat " + p.dir + "/decisions.csv)") + "'");
+  ASSERT_EQ(piped.exit_code, 0) << piped.output;
+  EXPECT_TRUE(read_file(p.dir + "/pipe.csv") == read_file(p.dir + "/file.csv"));
+  EXPECT_EQ(by_id(read_csv(p.dir + "/pipe.csv"))["E1"][read_csv(p.dir + "/pipe.csv").column("decision")], "error");
+}
+
 }  // namespace
 }  // namespace envsift
