@@ -94,7 +94,8 @@ TEST(Validation, AChoiceOutsideItsWordsIsRefusedAsItIsRead) {
     SCOPED_TRACE(option);
     ScreenSettings s;
     const auto options = all_screen_options();
-    const auto o = std::find_if(options.begin(), options.end(), [&](const OptionSpec& d) { return d.name == option; });
+    const std::string name = option;  // a structured binding cannot be captured in C++17
+    const auto o = std::find_if(options.begin(), options.end(), [&name](const OptionSpec& d) { return d.name == name; });
     ASSERT_NE(o, options.end());
     std::string library = "(no error)";
     try {
