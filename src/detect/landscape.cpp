@@ -37,11 +37,20 @@
 //     MCD's reweighting), so that errors do not widen the niche they are judged against;
 //   - uncertainty discs: the value inside the disc that fits the taxon best (coordinate ascent of
 //     η over the disc's box), as the other tests do.
-// A record is flagged only when, besides the ratio, at most 2 % of the taxon's places lie in
-// environments at least as unsuited to it: a taxon sampled unevenly (collectors favouring the
-// uplands) under-uses a common environment without any of its records there being wrong, and
-// flagging a tenth of its places would say nothing a reviewer can act on. The severity, and so
-// the rank, is the ratio's either way.
+// Its probability: the share of the taxon's fitted distribution f lying in environments at most
+// as suited as the record's (η at most the record's). f ∝ a · exp(η), so the landscape cells,
+// drawn from a, weighted by exp(η) are a sample of f (importance weights), and with the record
+// itself counted once, as a conformal p-value counts its test point (Vovk, Gammerman & Shafer
+// 2005, Algorithmic Learning in a Random World, Springer, from memory),
+//   p(x) = (Σ_{c: η_c ≤ η_x} e^{η_c} + e^{η_x}) / (Σ_c e^{η_c} + e^{η_x}),
+// which never reaches 0 and for a normal taxon in a normal landscape is the closed form the
+// tests check. Unlike a share of the taxon's own places, it is not raised by the errors
+// themselves: relocated records are many among a taxon's unsuited places, few among its
+// weighted landscape.
+// With its own cutoff (--flag-rule cutoffs) a record is flagged when, besides the ratio, at most
+// 2 % of the taxon's places lie in environments at least as unsuited to it (a taxon sampled
+// unevenly under-uses a common environment without any of its records there being wrong). The
+// severity, and so the rank, is the ratio's either way.
 // The reason gives the evidence in counts: the share of the landscape at least as unsuited to the
 // taxon (η at most the record's) and how many of the taxon's places lie there.
 #include "envsift/detect/landscape.hpp"
@@ -178,6 +187,15 @@ struct Fit {
   Eigen::VectorXd beta;
   double log_n_over_m = 0;
   std::vector<double> eta_land, eta_places;
+  std::vector<double> weight_below;  // Σ exp(η_c − max η) over the cells up to each, sorted by η
+
+  // The share of the taxon's fitted distribution at most as suited as η (see the top).
+  double probability(double eta, std::size_t cells_at_most) const {
+    const double top = eta_land.back(), ref = std::max(top, eta);
+    const double scale = std::exp(top - ref), own = std::exp(eta - ref);
+    const double below = cells_at_most ? weight_below[cells_at_most - 1] : 0.0;
+    return (below * scale + own) / (weight_below.back() * scale + own);
+  }
 };
 
 Fit fit_model(const TaxonValues& taxon, const Sample& s, const Basis& b, const Eigen::MatrixXd& zl,
@@ -213,6 +231,8 @@ Fit fit_model(const TaxonValues& taxon, const Sample& s, const Basis& b, const E
   for (Eigen::Index i = 0; i < n; ++i) f.eta_places.push_back(design.row(i).dot(f.beta));
   std::sort(f.eta_land.begin(), f.eta_land.end());
   std::sort(f.eta_places.begin(), f.eta_places.end());
+  double sum = 0;
+  for (double e : f.eta_land) f.weight_below.push_back(sum += std::exp(e - f.eta_land.back()));
   return f;
 }
 
@@ -268,8 +288,8 @@ Finding judge_record(const TaxonValues& taxon, Eigen::Index r, const Basis& b, c
   // any real difference makes the count the same everywhere.
   const double at_most = eta + 1e-9 * std::max(1.0, std::fabs(eta));
   const auto& land = fit.eta_land;
-  const double area_share =
-      static_cast<double>(std::upper_bound(land.begin(), land.end(), at_most) - land.begin()) / static_cast<double>(land.size());
+  const auto cells_there = static_cast<std::size_t>(std::upper_bound(land.begin(), land.end(), at_most) - land.begin());
+  const double area_share = static_cast<double>(cells_there) / static_cast<double>(land.size());
   const auto places_there =
       static_cast<std::size_t>(std::upper_bound(fit.eta_places.begin(), fit.eta_places.end(), at_most) - fit.eta_places.begin());
   f.tested = true;
@@ -278,14 +298,15 @@ Finding judge_record(const TaxonValues& taxon, Eigen::Index r, const Basis& b, c
   f.severity = log_ratio > 0 ? std::sqrt(log_ratio / log_cutoff) : 0.0;  // on the D² scale, like Mahalanobis
   const double place_share = static_cast<double>(places_there) / static_cast<double>(places);
   f.flagged = log_ratio > log_cutoff && place_share <= o.max_place_share;
+  f.probability = fit.probability(eta, cells_there);
   f.extras = {area_share};
-  if (f.flagged) {
+  if (f.flagged || f.probability <= kWorthWords) {
     char buf[400];
     std::snprintf(buf, sizeof buf,
                   "landscape: this environment is %s times more common %s than among the taxon's records: "
                   "environments as unsuited to it cover %s of that landscape and hold %zu of its %zu places (%s)%s",
                   times(f.statistic).c_str(), taxon.landscape->area.c_str(), percent(area_share).c_str(), places_there,
-                  places, percent(static_cast<double>(places_there) / static_cast<double>(places)).c_str(),
+                  places, percent(place_share).c_str(),
                   disc ? ", for the value within its uncertainty disc that fits the taxon best" : "");
     f.reasons.push_back(buf);
   }

@@ -26,6 +26,16 @@
 // when correlation pulls the other way, so the reported share of layer j is its positive part
 // over the sum of the positive parts: max(0, e_j (A e)_j) / Σ_i max(0, e_i (A e)_i).
 //
+// Its probability. With the sample mean and covariance of n rows that include the record, D²
+// is bounded by (n − 1)²/n and exactly
+//   n D² / (n − 1)²  ~  Beta(k/2, (n − k − 1)/2)
+// for multivariate normal rows (Gnanadesikan, R. & Kettenring, J.R. (1972) Robust estimates,
+// residuals, and outlier detection with multiresponse data. Biometrics 28:81-124, after Wilks
+// 1962), which the χ² limit overstates at small n: a taxon of 20 places has D² < 18.05 in 2
+// dimensions whatever its values. A record beyond the bound (one left out of the estimate, a
+// record decided `error`) gets probability 0. The principal-component reduction uses the
+// same rows, so the form is approximate when it keeps fewer components than layers.
+//
 // The scatter is inverted over its directions of non-negligible variance only (pseudo-inverse,
 // same floor). A robust scatter is flat along a direction when more than half the reference rows
 // share one value there (an exact fit, e.g. a layer of a few classes); that direction is left
@@ -42,6 +52,7 @@
 #include "envsift/detect/robust_z.hpp"
 #include "envsift/detect/numerics.hpp"
 #include "envsift/detect/skew_scale.hpp"
+#include "envsift/detect/tail_probability.hpp"
 
 namespace envsift {
 
@@ -79,6 +90,12 @@ ReducedSpace reduce(const Eigen::MatrixXd& complete, const MahalanobisOptions& o
     space.basis.col(c) = fixed_sign(eig.eigenvectors().col(p - 1 - c));
   }
   return space;
+}
+
+double Mahalanobis::tail(double d2, std::size_t dims, std::size_t rows) const {
+  const double n = static_cast<double>(rows), k = static_cast<double>(dims);
+  if (n - k - 1 <= 0) return chi_square_upper_tail(k, d2);
+  return beta_upper_tail(k / 2, (n - k - 1) / 2, n * d2 / ((n - 1) * (n - 1)));
 }
 
 Estimate Mahalanobis::estimate(const Eigen::MatrixXd& scores, const Eigen::MatrixXd&, const Eigen::MatrixXd&,
@@ -119,8 +136,8 @@ std::string describe(const std::string& test, double d2, double cutoff, std::siz
                      std::vector<std::pair<double, std::string>> shares) {
   std::stable_sort(shares.begin(), shares.end(), [](const auto& a, const auto& b) { return a.first > b.first; });
   char buf[160];
-  std::snprintf(buf, sizeof buf, "%s D² %.1f > %.1f (%zu dim%s):", test == "mahalanobis" ? "Mahalanobis" : "robust Mahalanobis",
-                d2, cutoff, k, k == 1 ? "" : "s");
+  std::snprintf(buf, sizeof buf, "%s D² %.1f %s %.1f (%zu dim%s):", test == "mahalanobis" ? "Mahalanobis" : "robust Mahalanobis",
+                d2, d2 > cutoff ? ">" : "≤", cutoff, k, k == 1 ? "" : "s");
   std::string s = buf;
   std::size_t listed = 0;
   for (const auto& [share, layer] : shares) {
@@ -180,6 +197,7 @@ struct Mahalanobis::FittedSpace {
   const Eigen::VectorXd& centre;            // Bc, in standardised layer units
   std::size_t dims;
   double cutoff;
+  std::size_t rows;  // reference rows the estimate came from
 };
 
 Finding Mahalanobis::judge_record(const TaxonValues& taxon, Eigen::Index row, const FittedSpace& m) const {
@@ -211,8 +229,9 @@ Finding Mahalanobis::judge_record(const TaxonValues& taxon, Eigen::Index row, co
   f.threshold = m.cutoff;
   f.severity = std::sqrt(d2 / m.cutoff);  // a distance ratio, comparable with |z| / cutoff
   f.flagged = d2 > m.cutoff;
+  f.probability = tail(d2, m.dims, m.rows);
   f.extras = {static_cast<double>(m.dims)};
-  if (f.flagged) {
+  if (f.flagged || f.probability <= kWorthWords) {
     std::vector<std::pair<double, std::string>> shares;
     double positive = 0;
     for (Eigen::Index j = 0; j < used; ++j) positive += std::max(0.0, e[j] * ae[j]);
@@ -264,7 +283,7 @@ std::vector<Finding> Mahalanobis::judge_values(const TaxonValues& taxon) const {
   const std::size_t dims = precision.rank;
   const double cutoff = chi_square_quantile(static_cast<double>(dims), options_.quantile);
 
-  const FittedSpace fitted{space, layers, layer_precision, centre, dims, cutoff};
+  const FittedSpace fitted{space, layers, layer_precision, centre, dims, cutoff, complete_rows.size()};
   std::vector<Finding> findings(rows);
   for (std::size_t i = 0; i < rows; ++i) findings[i] = judge_record(taxon, static_cast<Eigen::Index>(i), fitted);
   return findings;

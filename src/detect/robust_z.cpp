@@ -26,6 +26,10 @@
 // quantile of |z| that flags the same share as `cutoff` does for large n: 1.90 × at n = 10,
 // 1.37 × at 20, 1.06 × at 100, 1.01 × at 500 (fitted at cutoff 3; close for 2.5 to 3.5).
 //
+// Its probability: the normal two-sided tail of |z| / (1 + 6/n + 30/n²), the same small-sample
+// widening, so that a layer's probability means the share of a clean taxon's values (normal on
+// the layer, or on each side with --scale skew) at least this far out: P(|Z| > |z| / c_n).
+//
 // Skewed layers (rainfall, slope, distances): with `skew_adjusted` (--scale skew) each side of
 // the median has its own spread, the distance to that side's adjusted-boxplot fence over 2.698
 // (Hubert & Vandervieren 2008; skew_scale.cpp), which equals the SD on both sides for normal
@@ -34,6 +38,7 @@
 // month from the median is never many robust SDs.
 #include "envsift/detect/robust_z.hpp"
 #include "envsift/detect/skew_scale.hpp"
+#include "envsift/detect/tail_probability.hpp"
 #include "envsift/median.hpp"
 
 #include <algorithm>
@@ -77,12 +82,12 @@ namespace {
 // skew adjustment each side's own (skew_scale.hpp, the MAD-based spread where a side collapses).
 class RobustZLayer : public PerLayerDetector::Layer {
  public:
-  RobustZLayer(SideScales scale, double cutoff, std::string name)
-      : scale_(scale), cutoff_(cutoff), name_(std::move(name)) {}
+  RobustZLayer(SideScales scale, double cutoff, double widening, std::string name)
+      : scale_(scale), cutoff_(cutoff), widening_(widening), name_(std::move(name)) {}
   LayerVerdict judge(double x) const override {
     const double z = scale_.z(x);
-    LayerVerdict v{std::fabs(z), cutoff_, ""};
-    if (v.statistic > cutoff_) v.reason = describe(name_, x, z, scale_.median);
+    LayerVerdict v{std::fabs(z), cutoff_, "", normal_two_sided_tail(z / widening_)};
+    if (v.statistic > cutoff_ || v.probability <= kWorthWords) v.reason = describe(name_, x, z, scale_.median);
     return v;
   }
   double centre() const override { return scale_.median; }
@@ -93,6 +98,7 @@ class RobustZLayer : public PerLayerDetector::Layer {
  private:
   SideScales scale_;
   double cutoff_;
+  double widening_;  // 1 + 6/n + 30/n²
   std::string name_;
 };
 
@@ -106,7 +112,8 @@ std::unique_ptr<PerLayerDetector::Layer> RobustZ::prepare(std::vector<double> re
   SideScales scale = options_.skew_adjusted ? side_scales(std::move(reference), s.spread)
                                             : SideScales{s.median, s.spread, s.spread};
   scale.below = std::max(scale.below, floor), scale.above = std::max(scale.above, floor);
-  return std::make_unique<RobustZLayer>(scale, small_sample_cutoff(options_.cutoff, n), layer);
+  return std::make_unique<RobustZLayer>(scale, small_sample_cutoff(options_.cutoff, n), small_sample_cutoff(1, n),
+                                        layer);
 }
 
 double small_sample_cutoff(double cutoff, std::size_t n) {

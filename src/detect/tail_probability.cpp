@@ -6,6 +6,7 @@
 
 #include <boost/math/distributions/chi_squared.hpp>
 #include <boost/math/distributions/normal.hpp>
+#include <boost/math/special_functions/beta.hpp>
 
 namespace envsift {
 
@@ -24,6 +25,13 @@ double chi_square_upper_tail(double dof, double x) {
   return boost::math::cdf(boost::math::complement(boost::math::chi_squared(dof), x));
 }
 
+double beta_upper_tail(double a, double b, double x) {
+  if (std::isnan(x)) return x;
+  if (!(x > 0)) return 1.0;
+  if (x >= 1) return 0.0;
+  return boost::math::ibetac(a, b, x);
+}
+
 double cauchy_combination(const std::vector<double>& p, const std::vector<double>& weights) {
   double t = 0;
   for (std::size_t i = 0; i < p.size(); ++i) {
@@ -40,9 +48,12 @@ double cauchy_combination(const std::vector<double>& p, const std::vector<double
 
 double sidak_minimum(const std::vector<double>& p) {
   if (p.empty()) return 1.0;
-  const double smallest = *std::min_element(p.begin(), p.end());
+  return sidak_minimum(*std::min_element(p.begin(), p.end()), p.size());
+}
+
+double sidak_minimum(double smallest, std::size_t k) {
   // 1 − (1 − p)^k = −expm1(k log1p(−p)): exact for small p
-  return -std::expm1(static_cast<double>(p.size()) * std::log1p(-smallest));
+  return std::min(1.0, -std::expm1(static_cast<double>(k) * std::log1p(-std::min(smallest, 1.0))));
 }
 
 std::vector<bool> benjamini_hochberg(const std::vector<double>& p, double q) {

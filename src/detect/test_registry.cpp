@@ -124,6 +124,19 @@ const std::vector<TestOption>& test_options() {
         "taxon. Places, not records, are counted, so a batch of records at a few wrong places stays flagged. 1 turns "
         "this off",
         &T::max_flagged_share, Bounds{0.0, 1.0, true, false}));
+    v.push_back(real_option(
+        "flag-share", "P",
+        "with --flag-rule share: the share of a taxon's clean records you accept to see flagged: a record is flagged when the tests' combined "
+        "probability (how often a clean record of its taxon would look at least this unusual) is at most P. 0.01 "
+        "flags about 1 in 100 clean records; with --flag-rule fdr, P is the false discovery rate among each taxon's flags",
+        &T::flag_share, Bounds{0.0, 0.5, true, false}));
+    v.push_back(choice_option(
+        "flag-rule",
+        "how flags are decided. share: the combined probability at most --flag-share; fdr: Benjamini-Hochberg at "
+        "--flag-share over each taxon's records (fewer flags where a taxon has many unusual records); cutoffs: each "
+        "test by its own cutoff (--z-cutoff, --chi2-quantile, --landscape-ratio; the reverse jackknife's is fixed). cutoffs "
+        "stays the default until the probabilities keep their share on every terrain measured (docs/methods.md)",
+        &T::flag_rule, Choices<FlagRule>{{"share", FlagRule::share}, {"fdr", FlagRule::fdr}, {"cutoffs", FlagRule::cutoffs}}));
     for (const auto& e : test_registry()) v.insert(v.end(), e.options.begin(), e.options.end());
     return v;
   }();

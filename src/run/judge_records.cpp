@@ -5,6 +5,7 @@
 
 #include "envsift/detect/judge_taxa.hpp"
 #include "envsift/sample/landscape_sample.hpp"
+#include "envsift/score/flag_rule.hpp"
 #include "envsift/score/population_guard.hpp"
 #include "envsift/write/value_format.hpp"
 #include "steps.hpp"
@@ -104,16 +105,18 @@ class Landscapes {
 // every record check's, combined; a reviewer's decision applied; kept in the verdict store.
 class VerdictMaker {
  public:
-  VerdictMaker(const RecordTable& t, const ActiveTests& tests, const Membership& m, CombineRule rule, Judgement& j)
-      : t_(t), tests_(tests), m_(m), rule_(rule), names_(tests.names()), extras_(tests.extra_columns()), j_(j) {}
+  VerdictMaker(const RecordTable& t, const ActiveTests& tests, const Membership& m, CombineRule rule, FlagRule flag_rule,
+               Judgement& j)
+      : t_(t), tests_(tests), m_(m), rule_(rule), flag_rule_(flag_rule), names_(tests.names()),
+        extras_(tests.extra_columns()), j_(j) {}
 
-  Verdict judge(std::size_t i, std::vector<const Finding*> findings) const {
+  Verdict judge(std::size_t i, std::vector<const Finding*> findings, const RecordFlag& flag = {}) const {
     std::vector<Finding> checked(tests_.checks.size());
     for (std::size_t c = 0; c < tests_.checks.size(); ++c) {
       if (m_.mine[i]) checked[c] = tests_.checks[c]->judge(i);
       findings.push_back(&checked[c]);
     }
-    Verdict v = combine(findings, names_, rule_);
+    Verdict v = combine(findings, names_, rule_, flag, flag_rule_);
     if (const auto note = t_.notes.find(i); note != t_.notes.end())
       v.reasons.insert(v.reasons.end(), note->second.begin(), note->second.end());
     v.codes.erase(std::remove(v.codes.begin(), v.codes.end(), std::string()), v.codes.end());
@@ -131,6 +134,7 @@ class VerdictMaker {
   const ActiveTests& tests_;
   const Membership& m_;
   CombineRule rule_;
+  FlagRule flag_rule_;
   std::vector<std::string> names_;
   std::vector<std::vector<std::string>> extras_;
   Judgement& j_;
@@ -148,7 +152,9 @@ Judgement judge_records(RecordTable& t, const ActiveTests& tests, const Membersh
   j.scores.resize(n);
   if (!m.decisions.of.empty())
     for (Decision d : m.decisions.of) j.tiers.push_back(review_tier(d));
-  const VerdictMaker verdicts(t, tests, m, s.tests.combine == Combine::mean ? CombineRule::mean : CombineRule::max, j);
+  const FlagSettings flag_settings{s.tests.flag_rule, s.tests.flag_share};
+  const VerdictMaker verdicts(t, tests, m, s.tests.combine == Combine::mean ? CombineRule::mean : CombineRule::max,
+                              flag_settings.rule, j);
   const auto& names = verdicts.names();
 
   PopulationGuard guard;
@@ -172,17 +178,19 @@ Judgement judge_records(RecordTable& t, const ActiveTests& tests, const Membersh
   auto on_taxon = [&](const JudgedTaxon& taxon, std::vector<std::vector<Finding>>& findings) {
     std::vector<std::uint64_t> places;
     for (std::size_t i : taxon.records) places.push_back(t.cells[i]);
+    flag_tests_at_knob(findings, flag_settings);
     for (std::size_t d = 0; d < tests.detectors.size(); ++d) {
       const GuardOutcome g = withhold_population_flags(findings[d], places, names[d], guard);
       if (!g.withheld) continue;
       std::lock_guard<std::mutex> hold(lock);
       withheld.emplace_back(taxon.index, withheld_words(taxon.taxon, names[d], g));
     }
+    const std::vector<RecordFlag> flags = decide_flags(findings, flag_settings);
     std::vector<Verdict> taxon_verdicts;
     for (std::size_t r = 0; r < taxon.records.size(); ++r) {
       std::vector<const Finding*> per_test;
       for (const auto& f : findings) per_test.push_back(&f[r]);
-      taxon_verdicts.push_back(verdicts.judge(taxon.records[r], per_test));
+      taxon_verdicts.push_back(verdicts.judge(taxon.records[r], per_test, flags[r]));
     }
     for (RecordSink* out : outputs) out->taxon(taxon, taxon_verdicts);
     if (s.progress) s.progress->advance(1);

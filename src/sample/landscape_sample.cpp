@@ -25,6 +25,18 @@ double cell_size_m(const LayerInfo& layer) {
   return layer.geographic ? size * M_PI / 180 * kEarthRadiusM : size;
 }
 
+// The shorter side of a layer's extent, metres (a geographic grid's east-west side at its
+// middle latitude).
+double short_side_m(const LayerInfo& layer) {
+  const double w = layer.width * std::fabs(layer.geotransform[1]), h = layer.height * std::fabs(layer.geotransform[5]);
+  if (!layer.geographic) return std::min(w, h);
+  const double middle = layer.geotransform[3] + layer.geotransform[5] * layer.height / 2;
+  const double metres_per_degree = M_PI / 180 * kEarthRadiusM;
+  return std::min(w * metres_per_degree * std::cos(middle * M_PI / 180), h * metres_per_degree);
+}
+
+bool complete_row(const Eigen::MatrixXd& m, Eigen::Index r) { return m.row(r).array().isFinite().all(); }
+
 std::string kilometres(double m) {
   char buf[64];
   std::snprintf(buf, sizeof buf, m < 10000 ? "%.1f km" : "%.0f km", m / 1000);
@@ -36,7 +48,10 @@ std::string kilometres(double m) {
 LandscapeSampler::LandscapeSampler(RasterStack& stack, std::vector<LayerInfo> table_layers, std::vector<std::size_t> judged,
                                    Interpolation method, LandscapeOptions options)
     : stack_(stack), layers_(std::move(table_layers)), judged_(std::move(judged)), method_(method), options_(std::move(options)) {
-  min_radius_m_ = std::max(options_.min_radius_km * 1000, 10 * cell_size_m(stack_.layers().at(0)));
+  // the smallest radius is bounded by what the layers cover: on a reserve-scale study area (a
+  // few km at 30 m) a 20 km buffer would fall mostly off the layers
+  const LayerInfo& first = stack_.layers().at(0);
+  min_radius_m_ = std::max(std::min(options_.min_radius_km * 1000, short_side_m(first) / 2), 10 * cell_size_m(first));
 }
 
 double LandscapeSampler::buffer_radius_m(const TaxonPlaces& t) const {
@@ -74,21 +89,29 @@ void LandscapeSampler::draw_extent() {
   const CrsTransformation to_wgs84 = new_transformation(first.crs_wkt, wgs84_wkt());
   if (!to_wgs84) throw InputError(first.spec.path, "cannot transform its CRS to WGS 84", "use --landscape-area buffer");
   SeededRandom random(stable_hash("landscape extent", options_.seed ^ kFnvBasis));
-  std::vector<double> lon, lat;
   const auto& g = first.geotransform;
-  for (std::size_t tries = 0; lon.size() < options_.cells && tries < 100 * options_.cells; ++tries) {
-    const double col = random.uniform() * first.width, row = random.uniform() * first.height;
-    double x = g[0] + col * g[1] + row * g[2], y = g[3] + col * g[4] + row * g[5];
-    const double accept = random.uniform();
-    int ok = 0;
-    to_wgs84->Transform(1, &x, &y, nullptr, &ok);
-    if (!ok) continue;
-    if (first.geographic && accept > std::cos(y * M_PI / 180)) continue;  // equal area on the sphere
-    lon.push_back(x), lat.push_back(y);
-  }
   auto shared = std::make_shared<LandscapeValues>();
-  const Samples all = stack_.sample(lon, lat, method_);
-  shared->values = judged_values(all, 0, all.values.rows());
+  shared->values.resize(static_cast<Eigen::Index>(options_.cells), static_cast<Eigen::Index>(judged_.size()));
+  std::size_t kept = 0;
+  for (int round = 0; round < kDrawRounds && kept < options_.cells; ++round) {  // only cells with every value
+    std::vector<double> lon, lat;
+    for (std::size_t tries = 0; kept + lon.size() < options_.cells && tries < 100 * options_.cells; ++tries) {
+      const double col = random.uniform() * first.width, row = random.uniform() * first.height;
+      double x = g[0] + col * g[1] + row * g[2], y = g[3] + col * g[4] + row * g[5];
+      const double accept = random.uniform();
+      int ok = 0;
+      to_wgs84->Transform(1, &x, &y, nullptr, &ok);
+      if (!ok) continue;
+      if (first.geographic && accept > std::cos(y * M_PI / 180)) continue;  // equal area on the sphere
+      lon.push_back(x), lat.push_back(y);
+    }
+    if (lon.empty()) break;
+    const Samples all = stack_.sample(lon, lat, method_);
+    const Eigen::MatrixXd values = judged_values(all, 0, all.values.rows());
+    for (Eigen::Index k = 0; k < values.rows(); ++k)
+      if (complete_row(values, k)) shared->values.row(static_cast<Eigen::Index>(kept++)) = values.row(k);
+  }
+  shared->values.conservativeResize(static_cast<Eigen::Index>(kept), Eigen::NoChange);
   shared->area = "in the layers' extent";
   extent_ = std::move(shared);
 }
@@ -98,31 +121,45 @@ std::vector<LandscapeValues> LandscapeSampler::sample(const std::vector<TaxonPla
     if (!extent_) draw_extent();
     return std::vector<LandscapeValues>(taxa.size(), *extent_);
   }
-  std::vector<double> lon, lat;
   std::vector<std::string> area(taxa.size());
+  std::vector<double> radius(taxa.size());
+  std::vector<SeededRandom> random;
   for (std::size_t t = 0; t < taxa.size(); ++t) {
-    const TaxonPlaces& places = taxa[t];
-    const double radius = buffer_radius_m(places);
-    area[t] = "within " + kilometres(radius) + " of its records";
-    SeededRandom random(stable_hash(places.taxon, options_.seed ^ 0x1a2d5ca9e5ull));
-    for (std::size_t k = 0; k < options_.cells; ++k) {
-      if (places.longitude.empty()) {
-        lon.push_back(std::nan("")), lat.push_back(std::nan(""));
-        continue;
-      }
-      const std::size_t at = random.below(places.longitude.size());
-      const double azimuth = 360 * random.uniform(), distance = radius * std::sqrt(random.uniform());
-      const auto [x, y] = destination(places.longitude[at], places.latitude[at], azimuth, distance);
-      lon.push_back(wrap_longitude(x)), lat.push_back(y);
-    }
+    radius[t] = buffer_radius_m(taxa[t]);
+    area[t] = "within " + kilometres(radius[t]) + " of its records";
+    random.emplace_back(stable_hash(taxa[t].taxon, options_.seed ^ 0x1a2d5ca9e5ull));
   }
-  // each draw visits the layers in the order opposite to the sample before it (the records',
-  // then the previous batch's), so it begins on the blocks that one left in the cache
-  last_layer_first_ = !last_layer_first_;
-  const Samples all = stack_.sample(lon, lat, method_, last_layer_first_);
+  // Cells are kept only where every judged layer has a value (sea, nodata and the layers' edges
+  // are not environments the taxon could have chosen); the missing ones are drawn again, for a
+  // few rounds, each taxon from its own seeded sequence.
   std::vector<LandscapeValues> out(taxa.size());
+  std::vector<std::size_t> kept(taxa.size(), 0);
+  for (auto& o : out) o.values.resize(static_cast<Eigen::Index>(options_.cells), static_cast<Eigen::Index>(judged_.size()));
+  for (int round = 0; round < kDrawRounds; ++round) {
+    std::vector<double> lon, lat;
+    std::vector<std::size_t> owner;
+    for (std::size_t t = 0; t < taxa.size(); ++t) {
+      const TaxonPlaces& places = taxa[t];
+      if (places.longitude.empty()) continue;
+      for (std::size_t k = kept[t]; k < options_.cells; ++k) {
+        const std::size_t at = random[t].below(places.longitude.size());
+        const double azimuth = 360 * random[t].uniform(), distance = radius[t] * std::sqrt(random[t].uniform());
+        const auto [x, y] = destination(places.longitude[at], places.latitude[at], azimuth, distance);
+        lon.push_back(wrap_longitude(x)), lat.push_back(y), owner.push_back(t);
+      }
+    }
+    if (lon.empty()) break;
+    // each draw visits the layers in the order opposite to the sample before it (the records',
+    // then the previous batch's), so it begins on the blocks that one left in the cache
+    last_layer_first_ = !last_layer_first_;
+    const Samples all = stack_.sample(lon, lat, method_, last_layer_first_);
+    const Eigen::MatrixXd values = judged_values(all, 0, static_cast<Eigen::Index>(lon.size()));
+    for (std::size_t k = 0; k < owner.size(); ++k)
+      if (complete_row(values, static_cast<Eigen::Index>(k)))
+        out[owner[k]].values.row(static_cast<Eigen::Index>(kept[owner[k]]++)) = values.row(static_cast<Eigen::Index>(k));
+  }
   for (std::size_t t = 0; t < taxa.size(); ++t) {
-    out[t].values = judged_values(all, static_cast<Eigen::Index>(t * options_.cells), static_cast<Eigen::Index>(options_.cells));
+    out[t].values.conservativeResize(static_cast<Eigen::Index>(kept[t]), Eigen::NoChange);
     out[t].area = std::move(area[t]);
   }
   return out;

@@ -18,12 +18,14 @@ GuardOutcome withhold_population_flags(std::vector<Finding>& findings, const std
   o.judged_places = judged.size(), o.flagged_places = flagged.size();
   if (o.flagged_places < guard.min_places || !(o.share() > guard.max_share)) return o;
   o.withheld = true;
-  for (auto& f : findings)
+  for (auto& f : findings) {
+    f.withheld = true;  // its evidence leaves the combined probability for this taxon
     if (f.flagged) {
       f.flagged = false;  // severity kept: the record still ranks by how far out it is
       f.reasons.clear();
       f.codes.push_back(reason::on_layer(reason::looks_multimodal, test));
     }
+  }
   return o;
 }
 

@@ -1,6 +1,8 @@
 #include "envsift/score/scoring.hpp"
 
 #include <algorithm>
+#include <cmath>
+#include <cstdio>
 #include <numeric>
 
 #include "envsift/reason_codes.hpp"
@@ -15,14 +17,58 @@ std::vector<std::string> Verdict::withheld() const {
   return tests;
 }
 
-Verdict combine(const std::vector<const Finding*>& findings, const std::vector<std::string>& names, CombineRule rule) {
+std::string one_in(double p) {
+  if (!(p > 0)) return "none";
+  if (p < 1e-6) return "fewer than 1 in a million";
+  if (p > 0.5) return "more than 1 in 2";
+  // 1/p to two significant figures, thousands grouped: 1 in 4,000; 1 in 37; 1 in 120,000
+  std::string digits = std::to_string(std::llround(1 / p));
+  if (digits.size() > 2) {
+    const std::size_t drop = digits.size() - 2;
+    // (996 → 100 · 10 = 1,000: rounding up adds a digit, and the zeros keep the magnitude)
+    digits = std::to_string(std::llround(1 / p / std::pow(10.0, static_cast<double>(drop)))) + std::string(drop, '0');
+  }
+  std::string grouped;
+  for (std::size_t k = 0; k < digits.size(); ++k) {
+    if (k > 0 && (digits.size() - k) % 3 == 0) grouped += ',';
+    grouped += digits[k];
+  }
+  return "about 1 in " + grouped;
+}
+
+namespace {
+
+// The sentence that opens a record's reasons when the tests' evidence together flagged it.
+std::string combined_words(const std::vector<const Finding*>& findings, const std::vector<std::string>& names, double p) {
+  std::string tests;
+  std::size_t listed = 0;
+  for (std::size_t t = 0; t < findings.size(); ++t)
+    if (findings[t]->tested && !findings[t]->withheld && std::isfinite(findings[t]->probability)) {
+      char each[96];
+      std::snprintf(each, sizeof each, "%s%s %.2g", listed++ ? ", " : "", names[t].c_str(), findings[t]->probability);
+      tests += each;
+    }
+  char p_text[32];
+  std::snprintf(p_text, sizeof p_text, "%.2g", p);
+  const std::string how_many = p > 0 ? one_in(p) : "almost none";
+  return how_many + " of this taxon's clean records would look this unusual to the tests together (probability " +
+         p_text + ": " + tests + ")";
+}
+
+}  // namespace
+
+Verdict combine(const std::vector<const Finding*>& findings, const std::vector<std::string>& names, CombineRule rule,
+                const RecordFlag& flag, FlagRule flag_rule) {
   Verdict v;
-  std::vector<std::size_t> order;
+  const bool by_probability = flag_rule != FlagRule::cutoffs;
+  v.probability = flag.probability;
+  std::vector<std::size_t> order;  // tests whose reasons are written, in the order written
   double sum = 0;
   std::size_t judged = 0;
+  bool named = false;  // a test that gives a probability is listed in `flags`
   for (std::size_t t = 0; t < findings.size(); ++t) {
     const Finding& f = *findings[t];
-    v.tests.push_back({f.tested, f.statistic, f.threshold, f.extras});
+    v.tests.push_back({f.tested, f.statistic, f.threshold, f.probability, f.extras});
     if (!f.tested) {
       v.codes.push_back(f.untested_code);
       continue;
@@ -30,14 +76,25 @@ Verdict combine(const std::vector<const Finding*>& findings, const std::vector<s
     v.codes.insert(v.codes.end(), f.codes.begin(), f.codes.end());
     v.score = std::max(v.score.value_or(0.0), f.severity);
     sum += f.severity, ++judged;
-    if (f.flagged) {
-      v.flags.push_back(names[t]);
-      order.push_back(t);
-    }
+    const bool gives_probability = std::isfinite(f.probability);
+    // under a probability rule a test's own flag counts only on a record the evidence flagged;
+    // a check (no probability) flags by its own tolerance under every rule
+    const bool flags = f.flagged && (!by_probability || !gives_probability || flag.flagged);
+    if (flags) v.flags.push_back(names[t]), named = named || gives_probability;
+    const bool worded = flags || (by_probability && flag.flagged && gives_probability && !f.withheld &&
+                                  f.probability <= kWorthWords);
+    if (worded) order.push_back(t);
   }
+  if (by_probability && flag.flagged && !named) v.flags.push_back("combined");
   if (rule == CombineRule::mean && judged > 0) v.score = sum / static_cast<double>(judged);
-  std::stable_sort(order.begin(), order.end(),
-                   [&](std::size_t a, std::size_t b) { return findings[a]->severity > findings[b]->severity; });
+  // most severe first; under a probability rule, the strongest evidence (smallest probability) first
+  auto stronger = [&](std::size_t a, std::size_t b) {
+    const Finding &x = *findings[a], &y = *findings[b];
+    if (by_probability && std::isfinite(x.probability) && std::isfinite(y.probability)) return x.probability < y.probability;
+    return x.severity > y.severity;
+  };
+  std::stable_sort(order.begin(), order.end(), stronger);
+  if (by_probability && flag.flagged) v.reasons.push_back(combined_words(findings, names, flag.probability));
   for (std::size_t t : order)
     for (const auto& r : findings[t]->reasons) v.reasons.push_back(r);
   return v;

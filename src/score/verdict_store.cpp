@@ -33,10 +33,12 @@ void take_list(const std::vector<std::string>& fields, std::size_t& at, std::vec
 }  // namespace
 
 void VerdictStore::put(std::size_t record, const Verdict& v) {
-  // fields: score (empty or 8 bytes), flags, reasons, codes (each a count, then the items), the
+  // fields: score (empty or 8 bytes), the combined probability, flags, reasons, codes (each a count, then the items), the
   // decision (one byte), its note and what it set aside, and one field of bits per test
   std::vector<std::string> fields{std::string()};
   if (v.score) put_number(fields[0], *v.score);
+  fields.emplace_back();
+  put_number(fields.back(), v.probability);
   put_list(fields, v.flags);
   put_list(fields, v.reasons);
   put_list(fields, v.codes);
@@ -47,6 +49,7 @@ void VerdictStore::put(std::size_t record, const Verdict& v) {
     std::string bits(1, t.tested ? '1' : '0');
     put_number(bits, t.statistic);
     put_number(bits, t.threshold);
+    put_number(bits, t.probability);
     for (double e : t.extras) put_number(bits, e);
     fields.push_back(std::move(bits));
   }
@@ -61,7 +64,9 @@ void VerdictStore::get(std::size_t record, Verdict& v, Scratch& scratch) const {
   std::size_t at = 0;
   v.score.reset();
   if (!fields[0].empty()) v.score = take_number(fields[0], at);
-  std::size_t field = 1;
+  at = 0;
+  v.probability = take_number(fields[1], at);
+  std::size_t field = 2;
   take_list(fields, field, v.flags);
   take_list(fields, field, v.reasons);
   take_list(fields, field, v.codes);
@@ -75,6 +80,7 @@ void VerdictStore::get(std::size_t record, Verdict& v, Scratch& scratch) const {
     at = 1;
     t.statistic = take_number(bits, at);
     t.threshold = take_number(bits, at);
+    t.probability = take_number(bits, at);
     t.extras.clear();
     while (at < bits.size()) t.extras.push_back(take_number(bits, at));
   }

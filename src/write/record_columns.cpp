@@ -53,9 +53,11 @@ void each_cell(const RecordTable& t, const RecordOutcome& o, Cell&& cell) {
     cell(std::string_view(v.decision_note));
     cell(std::string_view(v.set_aside));
   }
+  put(put_probability(number, v.probability));
   for (const TestResult& test : v.tests) {
     put(test.tested ? put_statistic(number, test.statistic) : number);
     put(test.tested ? put_statistic(number, test.threshold) : number);
+    put(test.tested ? put_probability(number, test.probability) : number);
     for (double extra : test.extras) put(test.tested ? put_statistic(number, extra) : number);
   }
 }
@@ -68,11 +70,13 @@ std::vector<std::string> added_columns(const ActiveTests* tests, const std::stri
   for (const char* c : {"rank", "score", "flags", "reasons"}) added.push_back(prefix + c);
   if (decisions)
     for (const char* c : {"decision", "decision_note", "set_aside"}) added.push_back(prefix + c);
+  added.push_back(prefix + "probability");
   const auto extras = tests->extra_columns();
   const auto names = tests->names();
   for (std::size_t t = 0; t < names.size(); ++t) {
     added.push_back(prefix + names[t] + "_stat");
     added.push_back(prefix + names[t] + "_cutoff");
+    added.push_back(prefix + names[t] + "_p");
     for (const auto& extra : extras[t]) added.push_back(prefix + names[t] + "_" + extra);
   }
   return added;

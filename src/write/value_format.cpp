@@ -20,6 +20,11 @@ char* put_statistic(char* out, double value) {
   return std::to_chars(out, out + kNumberChars, value, std::chars_format::general, 6).ptr;
 }
 
+char* put_probability(char* out, double p) {
+  if (std::isnan(p)) return out;
+  return std::to_chars(out, out + kNumberChars, p, std::chars_format::general, 3).ptr;
+}
+
 char* put_score(char* out, double score) {
   return std::to_chars(out, out + kNumberChars, score, std::chars_format::fixed, 3).ptr;
 }

@@ -44,6 +44,22 @@ void expect_relative(double got, double expected, double tolerance) {
   EXPECT_NEAR(got, expected, tolerance * std::fabs(expected)) << "expected " << expected;
 }
 
+// The in-sample law of a classical D² (Gnanadesikan & Kettenring 1972): n D²/(n − 1)² ~
+// Beta(k/2, (n − k − 1)/2); its tail against R's pbeta, and the tail Mahalanobis::tail gives.
+TEST(TailProbability, BetaTailsMatchRPbeta) {
+  const std::vector<double> x{1e-6, 0.01, 0.2, 0.5, 0.9, 0.999};
+  const std::vector<std::pair<double, double>> shapes{{1, 8.5}, {1.5, 5}, {3, 40}};
+  for (const auto& [a, b] : shapes) {
+    char shape[64];
+    std::snprintf(shape, sizeof shape, ", %.17g, %.17g, lower.tail = FALSE)", a, b);
+    const auto expected = r_values("pbeta(" + r_vector(x) + shape);
+    ASSERT_EQ(expected.size(), x.size());
+    for (std::size_t i = 0; i < x.size(); ++i) expect_relative(beta_upper_tail(a, b, x[i]), expected[i], 1e-10);
+  }
+  EXPECT_EQ(beta_upper_tail(2, 3, 0), 1.0);
+  EXPECT_EQ(beta_upper_tail(2, 3, 1), 0.0);
+}
+
 TEST(TailProbability, NormalTailsMatchRPnorm) {
   const std::vector<double> z{-3, -0.5, 0, 0.5, 1.959963984540054, 4, 6, 10, 30};
   const auto upper = r_values("pnorm(" + r_vector(z) + ", lower.tail = FALSE)");

@@ -37,9 +37,10 @@ TEST(DemoScreen, PlantedErrorsRankFirstAndNoRecordIsLost) {
                                          "temperature_mean", "temperature_max", "rainfall", "rainfall_min",
                                          "rainfall_mean", "rainfall_max", "dry_months", "dry_months_min",
                                          "dry_months_mean", "dry_months_max", "status", "rank", "score",
-                                         "flags", "reasons", "robust_z_stat", "robust_z_cutoff",
-                                         "mahalanobis_stat", "mahalanobis_cutoff", "mahalanobis_dims",
-                                         "landscape_stat", "landscape_cutoff", "landscape_area_share"};
+                                         "flags", "reasons", "probability", "robust_z_stat", "robust_z_cutoff",
+                                         "robust_z_p", "mahalanobis_stat", "mahalanobis_cutoff", "mahalanobis_p",
+                                         "mahalanobis_dims", "landscape_stat", "landscape_cutoff", "landscape_p",
+                                         "landscape_area_share"};
   ASSERT_TRUE(std::equal(tail.begin(), tail.end(), out.header.begin() + static_cast<long>(in.header.size())));
 
   std::map<std::string, const std::vector<std::string>*> by_id;

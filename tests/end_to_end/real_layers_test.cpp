@@ -95,6 +95,28 @@ TEST_F(RealLayers, EveryRecordIsAccountedForAndValuesAreGdals) {
   }
 }
 
+// A reserve-scale study area: the Meuse grids cover 3.2 × 4.6 km at 40 m, with nodata outside the
+// floodplain. With the default buffer (20 km at least before) every landscape cell fell off the
+// layers and every record got no_landscape:landscape; the radius is now bounded by what the
+// layers cover and cells are drawn only where both layers have a value, so the landscape test
+// judges both soil types with at least 20 samples (soil type 3 has 12: too_few_records).
+TEST_F(RealLayers, TheLandscapeTestRunsOnAReserveScaleStudyArea) {
+  const std::string out = dir_ + "/reserve.csv";
+  const auto r = run(envsift_binary() + " screen -q --points " + dir_ + "/meuse.csv --points-crs EPSG:28992 "
+                     "--longitude-column x --latitude-column y --layers test=" + kTerra + "/test.grd meuse=" + kTerra +
+                     "/meuse.tif --out " + out);
+  ASSERT_EQ(r.exit_code, 0) << r.output;
+  const Table t = read_csv(out);
+  std::size_t judged = 0;
+  for (const auto& row : t.rows) {
+    EXPECT_EQ(row[t.column("status")].find("no_landscape"), std::string::npos) << row[0];
+    const bool small_taxon = row[1] == "soil type 3";
+    EXPECT_EQ(row[t.column("landscape_p")].empty(), small_taxon) << row[0] << " " << row[t.column("status")];
+    judged += !row[t.column("landscape_p")].empty();
+  }
+  EXPECT_EQ(judged, 143u);  // 97 + 46
+}
+
 TEST_F(RealLayers, EvaluateOnProjectedLayersNeverCrashes) {
   const std::string cmd = envsift_binary() + " evaluate --taxa 8 --layers " + kTerra + "/test.grd " + dir_ + "/intl.tif --out ";
   const auto first = run(cmd + dir_ + "/eval0.csv");

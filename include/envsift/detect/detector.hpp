@@ -45,7 +45,12 @@ struct Finding {
   double statistic = std::nan("");   // the test's own statistic (e.g. the largest |robust z|, D²)
   double threshold = std::nan("");   // the value beyond which the record is flagged
   double severity = std::nan("");    // on a common scale across tests: 1 at the threshold
-  bool flagged = false;
+  // How often a clean record of this taxon would look at least this unusual under the model the
+  // test fits (its tail probability); NaN for a test that only ranks (reverse jackknife) or a
+  // record check, which flag by their own cutoff. Flags are decided from it (score/flag_rule.hpp).
+  double probability = std::nan("");
+  bool flagged = false;              // beyond the test's own cutoff (or, once decided, at the knob)
+  bool withheld = false;             // the population guard withheld this test's flags for the taxon
   std::vector<double> extras;        // values of the test's extra_columns(), NaN when unknown
   std::vector<std::string> reasons;  // plain words for a flagged record: which layer, how far
   std::string untested_code;       // a reason code when not tested, e.g. too_few_records:robust_z
@@ -68,6 +73,10 @@ class Detector {
   }
   virtual bool flags_its_bounds() const { return false; }
 };
+
+// A test words a record's finding (Finding::reasons) when it is beyond its own cutoff or its
+// probability is at most this: the record may then be flagged by the tests' evidence together.
+constexpr double kWorthWords = 0.05;
 
 // Findings for a taxon no record of which can be judged.
 inline std::vector<Finding> untested(std::size_t rows, const std::string& reason) {

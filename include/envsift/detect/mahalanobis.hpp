@@ -42,6 +42,9 @@ class Mahalanobis : public Detector {
   virtual Estimate estimate(const Eigen::MatrixXd& scores, const Eigen::MatrixXd& standardised,
                             const Eigen::MatrixXd& basis, std::uint64_t seed) const;
   const MahalanobisOptions& options() const { return options_; }
+  // How often a clean record has D² at least `d2` in `dims` dimensions when the estimate came
+  // from `rows` reference rows that include the record (one per distinct cell).
+  virtual double tail(double d2, std::size_t dims, std::size_t rows) const;
 
  private:
   struct FittedSpace;

@@ -1,7 +1,15 @@
 // The shared frame of the one-layer tests (robust z, reverse jackknife): each layer is judged on
 // its own from the taxon's reference values; a record's finding is its most severe layer, and
 // its reasons list every layer beyond the cutoff, most severe first.
+//
+// Its probability: a layer's tail probability p_l (NaN when the test only ranks), and for the
+// record the smallest over the L layers it was judged on, made a probability for all L by
+// Šidák's rule, 1 − (1 − min p_l)^L. Šidák, Z. (1967) Rectangular confidence regions for the
+// means of multivariate normal distributions. J. Am. Stat. Assoc. 62:626-633: for two-sided
+// tests of jointly normal values the rule holds whatever their correlation (conservative when
+// layers are correlated, as climate layers are), so no layer count inflates the flags.
 #pragma once
+#include <cmath>
 #include <cstddef>
 #include <memory>
 #include <optional>
@@ -16,7 +24,8 @@ namespace envsift {
 struct LayerVerdict {
   double statistic;
   double threshold;  // flagged when statistic > threshold
-  std::string reason;  // plain words, filled only when flagged
+  std::string reason;  // plain words, filled when flagged or its probability is worth words
+  double probability = std::nan("");  // the layer's tail probability; NaN: the test only ranks
 };
 
 class PerLayerDetector : public Detector {

@@ -22,9 +22,14 @@ class RobustMahalanobis : public Mahalanobis {
  protected:
   Estimate estimate(const Eigen::MatrixXd& scores, const Eigen::MatrixXd& standardised, const Eigen::MatrixXd& basis,
                     std::uint64_t seed) const override;
+  double tail(double d2, std::size_t dims, std::size_t rows) const override;
 
  private:
   McdOptions mcd_;
 };
+
+// How much larger robust D² runs than χ²_k in its upper tail for a clean taxon of n rows in k
+// dimensions (robust_mahalanobis.cpp); 1 for large n.
+double robust_distance_inflation(std::size_t dims, std::size_t rows);
 
 }  // namespace envsift

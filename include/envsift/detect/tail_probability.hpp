@@ -19,6 +19,8 @@ double normal_upper_tail(double z);
 double normal_two_sided_tail(double z);
 // P(χ²_dof > x).
 double chi_square_upper_tail(double dof, double x);
+// P(B > x) for B ~ Beta(a, b): 1 at x ≤ 0, 0 at x ≥ 1.
+double beta_upper_tail(double a, double b, double x);
 
 // The Cauchy combination of probabilities p_i with weights w_i (summing to 1; equal when empty):
 //   T = Σ w_i tan((1/2 − p_i) π),   p = 1/2 − arctan(T) / π.
@@ -27,6 +29,7 @@ double cauchy_combination(const std::vector<double>& p, const std::vector<double
 
 // The smallest of k probabilities made a probability for all k (Šidák): 1 − (1 − min p)^k.
 double sidak_minimum(const std::vector<double>& p);
+double sidak_minimum(double smallest, std::size_t k);
 
 // Which of a family's probabilities are discoveries at false discovery rate q (Benjamini &
 // Hochberg's step-up rule): p_(i) ≤ i q / m for the largest such i, and every smaller one.

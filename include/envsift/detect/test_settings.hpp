@@ -18,6 +18,9 @@ enum class Scale { mad, skew };
 enum class PopulationMode { split, one };
 // How the tests' severities make a record's score.
 enum class Combine { max, mean };
+// How flags are decided (score/flag_rule.hpp): at a share of clean records, at a false discovery
+// rate per taxon, or by each test's own cutoff.
+enum class FlagRule { share, fdr, cutoffs };
 
 // Each test's own settings struct, one value per type (a copyable struct with defaults).
 class OwnSettings {
@@ -52,6 +55,9 @@ struct TestSettings {
   PopulationMode populations = PopulationMode::split;
   Combine combine = Combine::mean;    // (docs/evaluation.md)
   double max_flagged_share = 0.15;    // population guard
+  // cutoffs until the probabilities keep their promise on every terrain (docs/methods.md)
+  FlagRule flag_rule = FlagRule::cutoffs;
+  double flag_share = 0.01;           // the knob: share of clean records flagged, or the FDR
   OwnSettings own;                    // each test's own (RobustZSettings, LandscapeSettings, ...)
 };
 

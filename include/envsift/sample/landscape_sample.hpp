@@ -60,6 +60,7 @@ class LandscapeSampler {
  private:
   Eigen::MatrixXd judged_values(const Samples& samples, Eigen::Index first, Eigen::Index rows) const;
   void draw_extent();
+  static constexpr int kDrawRounds = 6;  // rounds of redrawing cells without a value on every layer
   RasterStack& stack_;
   std::vector<LayerInfo> layers_;
   std::vector<std::size_t> judged_;

@@ -20,6 +20,9 @@ std::string format_value(double value, bool as_float32 = false);
 char* put_statistic(char* out, double value);
 std::string format_statistic(double value);
 
+// Probabilities: three significant digits, as printf's %.3g (NaN → empty).
+char* put_probability(char* out, double p);
+
 // Scores with three decimals, as printf's %.3f.
 char* put_score(char* out, double score);
 std::string format_score(double score);
