@@ -6,6 +6,10 @@
 //  2. The density ratio itself, against its closed form: landscape N(0, 1), taxon N(1, 0.5²), so
 //     a(x)/f(x) = φ(x) / (φ((x − 1)/0.5)/0.5) (normal densities; textbook algebra). The fitted
 //     ratio must be within a factor e^0.35 of it across the taxon's range.
+//  2b. Its probability against the closed form for the same case: the fitted log ratio is
+//     quadratic, η(x) = c − 1.5 (x − 4/3)² (−2(x − 1)² + x²/2), so the environments at most as
+//     suited as x are |X − 4/3| ≥ |x − 4/3|, and under the taxon X ~ N(1, 0.5²):
+//     p(x) = Φ((1/3 − d)/0.5) + 1 − Φ((1/3 + d)/0.5), d = |x − 4/3| (textbook algebra).
 //  3. Ties: on rounded layers (a DEM in whole metres, a raster rounded to 0.1), many cells share the
 //     record's environment; "at most as suited" counts all of them, whatever the rounding of η (the
 //     share is then a whole number of environments: arithmetic). It failed before ties were counted.
@@ -71,6 +75,22 @@ TEST(Landscape, RatioMatchesTheClosedFormForNormalLandscapeAndTaxon) {
     const double x = at[i];
     const double truth = boost::math::pdf(normal, x) / (boost::math::pdf(normal, (x - 1) / 0.5) / 0.5);
     EXPECT_NEAR(std::log(findings[i].statistic), std::log(truth), 0.35) << "x = " << x;
+  }
+}
+
+TEST(Landscape, ProbabilityMatchesTheClosedFormForNormalLandscapeAndTaxon) {
+  const LandscapeValues landscape{column(quantiles(4000, 0, 1)), "in the layers' extent"};
+  const Eigen::MatrixXd reference = column(quantiles(400, 1, 0.5));
+  const std::vector<double> at{-0.2, 0.2, 0.6, 1.0, 1.4, 1.8, 2.4};
+  const auto findings = LandscapeTest().judge({reference, column(at), kNames, 1, nullptr, nullptr, &landscape});
+  const boost::math::normal normal;
+  for (std::size_t i = 0; i < at.size(); ++i) {
+    const double d = std::fabs(at[i] - 4.0 / 3);
+    const double truth = boost::math::cdf(normal, (1.0 / 3 - d) / 0.5) + 1 - boost::math::cdf(normal, (1.0 / 3 + d) / 0.5);
+    SCOPED_TRACE("x = " + std::to_string(at[i]) + ", closed form " + std::to_string(truth));
+    ASSERT_TRUE(findings[i].tested);
+    if (truth > 0.05) EXPECT_NEAR(findings[i].probability, truth, 0.05);
+    else EXPECT_NEAR(std::log(findings[i].probability), std::log(truth), 0.4);  // within a factor 1.5
   }
 }
 
