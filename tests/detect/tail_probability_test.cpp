@@ -50,7 +50,7 @@ TEST(TailProbability, BetaTailsMatchRPbeta) {
   const std::vector<double> x{1e-6, 0.01, 0.2, 0.5, 0.9, 0.999};
   const std::vector<std::pair<double, double>> shapes{{1, 8.5}, {1.5, 5}, {3, 40}};
   for (const auto& [a, b] : shapes) {
-    char shape[64];
+    char shape[128];
     std::snprintf(shape, sizeof shape, ", %.17g, %.17g, lower.tail = FALSE)", a, b);
     const auto expected = r_values("pbeta(" + r_vector(x) + shape);
     ASSERT_EQ(expected.size(), x.size());
