@@ -4,6 +4,7 @@
 #include <cmath>
 #include <cstdio>
 #include <numeric>
+#include <utility>
 
 #include "envsift/reason_codes.hpp"
 
@@ -87,12 +88,14 @@ Verdict combine(const std::vector<const Finding*>& findings, const std::vector<s
   }
   if (by_probability && flag.flagged && !named) v.flags.push_back("combined");
   if (rule == CombineRule::mean && judged > 0) v.score = sum / static_cast<double>(judged);
-  // most severe first; under a probability rule, the strongest evidence (smallest probability) first
-  auto stronger = [&](std::size_t a, std::size_t b) {
-    const Finding &x = *findings[a], &y = *findings[b];
-    if (by_probability && std::isfinite(x.probability) && std::isfinite(y.probability)) return x.probability < y.probability;
-    return x.severity > y.severity;
+  // most severe first; under a probability rule the tests by their evidence (smallest probability
+  // first), then the checks by severity — one key, so the order is a strict weak ordering
+  auto key = [&](std::size_t t) {
+    const Finding& f = *findings[t];
+    const bool ranked_by_p = by_probability && std::isfinite(f.probability);
+    return std::make_pair(ranked_by_p ? 0 : 1, ranked_by_p ? f.probability : -f.severity);
   };
+  auto stronger = [&](std::size_t a, std::size_t b) { return key(a) < key(b); };
   std::stable_sort(order.begin(), order.end(), stronger);
   if (by_probability && flag.flagged) v.reasons.push_back(combined_words(findings, names, flag.probability));
   for (std::size_t t : order)

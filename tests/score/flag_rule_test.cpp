@@ -89,6 +89,24 @@ TEST(FlagRule, TheVerdictSaysWhichEvidenceFlaggedItInWords) {
             std::vector<std::string>{"combined"});
 }
 
+// Reasons under a probability rule: the tests by their evidence, then the record checks (no
+// probability) by severity, whatever their severities — one order, the same on every run.
+TEST(FlagRule, ReasonsListTestsByEvidenceThenChecks) {
+  Finding weak = with_p(0.004), strong = with_p(0.0001), check = with_p(std::nan(""));
+  weak.severity = 3, strong.severity = 1, check.severity = 2;
+  weak.reasons = {"weak"}, strong.reasons = {"strong"}, check.reasons = {"check"};
+  check.flagged = true;
+  std::vector<std::vector<Finding>> f{{weak}, {check}, {strong}};
+  flag_tests_at_knob(f, {FlagRule::share, 0.01});
+  f[1][0].flagged = true;  // a check flags by its tolerance (flag_tests_at_knob leaves no probability unflagged)
+  const auto flags = decide_flags(f, {FlagRule::share, 0.01});
+  const Verdict v =
+      combine({&f[0][0], &f[1][0], &f[2][0]}, {"weak", "check", "strong"}, CombineRule::mean, flags[0], FlagRule::share);
+  ASSERT_EQ(v.reasons.size(), 4u);
+  EXPECT_EQ((std::vector<std::string>{v.reasons[1], v.reasons[2], v.reasons[3]}),
+            (std::vector<std::string>{"strong", "weak", "check"}));
+}
+
 TEST(FlagRule, OneInReadsAsAReviewerWouldSayIt) {
   EXPECT_EQ(one_in(0.00025), "about 1 in 4,000");
   EXPECT_EQ(one_in(1.0 / 37), "about 1 in 37");
